@@ -1,0 +1,392 @@
+import { orient2d } from 'robust-predicates';
+import { readPoints, type PointInput } from '../core/input.js';
+import { InputError } from '../core/errors.js';
+import { mergeDuplicates } from '../core/dedupe.js';
+import { HalfEdgeMesh } from '../mesh/mesh.js';
+import { TriangleStore, GHOST } from './store.js';
+import { brioOrder, hilbertSort } from './order.js';
+
+/** How sites are ordered before insertion. */
+export type InsertionOrder = 'brio' | 'hilbert' | 'input';
+
+export interface TriangulateOptions {
+  /**
+   * Insertion order (default 'hilbert'). The result is a Delaunay
+   * triangulation whichever is chosen; where four or more sites are
+   * cocircular, which diagonal is kept depends on the order.
+   */
+  order?: InsertionOrder;
+}
+
+const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
+const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
+
+function orderSites(xy: Float64Array, ids: Uint32Array, order: InsertionOrder): Uint32Array {
+  if (order === 'input') return ids;
+  if (order === 'brio') return brioOrder(xy, ids);
+  return hilbertSort(xy, ids);
+}
+
+/** Sites sorted by x, then y: the order of a collinear set along its line. */
+function lexicographic(xy: Float64Array, count: number): Int32Array {
+  const ids = Array.from({ length: count }, (_, i) => i);
+  ids.sort((a, b) => xy[2 * a] - xy[2 * b] || xy[2 * a + 1] - xy[2 * b + 1]);
+  return Int32Array.from(ids);
+}
+
+/**
+ * A Delaunay triangulation of distinct sites. Build one with
+ * {@link triangulate}; grow it with {@link Triangulation.insert}.
+ */
+export class Triangulation {
+  /** Distinct sites, interleaved x, y, numbered by first appearance in the input. */
+  siteXY: Float64Array;
+  siteCount: number;
+  /** For every input point so far, the site it was merged onto. */
+  siteOfInput: Int32Array;
+  /**
+   * 2 when the sites span the plane; 1 when they all lie on one line (no
+   * triangles, the hull is a path); 0 for a single site.
+   */
+  dimension: 0 | 1 | 2;
+
+  private store: TriangleStore | null = null;
+  /** Sites along their line when dimension < 2. */
+  private path: Int32Array | null = null;
+  /** Real triangles, once compacted in front of the ghosts; -1 when stale. */
+  private real = -1;
+  private vertexEdge: Int32Array | null = null;
+
+  /** @internal Use {@link triangulate}. */
+  constructor(xy: Float64Array, count: number, siteOfInput: Int32Array, order: InsertionOrder) {
+    this.siteXY = xy;
+    this.siteCount = count;
+    this.siteOfInput = siteOfInput;
+    this.dimension = 0;
+    this.build(order);
+  }
+
+  get inputCount(): number { return this.siteOfInput.length; }
+  /** Input points merged onto an earlier equal point. */
+  get mergedCount(): number { return this.siteOfInput.length - this.siteCount; }
+
+  get triangleCount(): number {
+    if (!this.store) return 0;
+    this.compact();
+    return this.real;
+  }
+
+  /**
+   * Three sites per triangle, counter-clockwise (y-up). A view: it is
+   * valid until the next {@link insert}.
+   */
+  get triangleSites(): Int32Array {
+    if (!this.store) return new Int32Array(0);
+    this.compact();
+    return this.store.vert.subarray(0, 3 * this.real);
+  }
+
+  private build(order: InsertionOrder): void {
+    const n = this.siteCount, xy = this.siteXY;
+    this.store = null;
+    this.path = null;
+    this.real = -1;
+    this.vertexEdge = null;
+    if (n < 3) {
+      this.dimension = n === 1 ? 0 : 1;
+      this.path = lexicographic(xy, n);
+      return;
+    }
+    const ids = new Uint32Array(n);
+    for (let i = 0; i < n; i++) ids[i] = i;
+    const ord = orderSites(xy, ids, order);
+    const a = ord[0], b = ord[1];
+    let k = 2;
+    let turn = 0;
+    for (; k < n; k++) {
+      turn = orient2d(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], xy[2 * ord[k]], xy[2 * ord[k] + 1]);
+      if (turn !== 0) break;
+    }
+    if (k === n) {
+      this.dimension = 1;
+      this.path = lexicographic(xy, n);
+      return;
+    }
+    this.dimension = 2;
+    const store = new TriangleStore(xy, 2 * n - 2);
+    // orient2d < 0 is counter-clockwise (y-up).
+    if (turn < 0) store.init(a, b, ord[k]);
+    else store.init(b, a, ord[k]);
+    for (let i = 2; i < n; i++) {
+      if (i !== k) store.insert(ord[i]);
+    }
+    this.store = store;
+    this.compact();
+  }
+
+  /** Renumbers triangles so that the real ones come first, ghosts after. */
+  private compact(): void {
+    const store = this.store;
+    if (!store || this.real >= 0) return;
+    const count = store.count;
+    const map = new Int32Array(count);
+    let r = 0;
+    for (let t = 0; t < count; t++) if (!store.isGhost(t)) map[t] = r++;
+    let g = r;
+    for (let t = 0; t < count; t++) if (store.isGhost(t)) map[t] = g++;
+    const vert = new Int32Array(3 * count), twin = new Int32Array(3 * count);
+    const ov = store.vert, ot = store.twin;
+    for (let t = 0; t < count; t++) {
+      const nt = 3 * map[t], o = 3 * t;
+      for (let j = 0; j < 3; j++) {
+        vert[nt + j] = ov[o + j];
+        const f = ot[o + j];
+        twin[nt + j] = 3 * map[(f / 3) | 0] + (f % 3);
+      }
+    }
+    store.vert = vert;
+    store.twin = twin;
+    store.last = map[store.last];
+    this.real = r;
+    this.vertexEdge = null;
+  }
+
+  private edgeOfVertex(): Int32Array {
+    if (this.vertexEdge) return this.vertexEdge;
+    const store = this.store!;
+    const ve = new Int32Array(this.siteCount).fill(-1);
+    const v = store.vert, len = 3 * store.count;
+    for (let e = 0; e < len; e++) if (v[e] >= 0) ve[v[e]] = e;
+    this.vertexEdge = ve;
+    return ve;
+  }
+
+  /**
+   * Sites on the convex hull, counter-clockwise, starting at the smallest
+   * site by (x, y). Sites lying on a hull edge are included. For collinear
+   * sites: all of them in order along the line; for one site: that site.
+   */
+  hull(): Int32Array {
+    if (!this.store) return this.path!.slice();
+    this.compact();
+    const v = this.store.vert, tw = this.store.twin;
+    const out: number[] = [];
+    const start = this.store.realEdgeOfGhost(this.real);
+    let re = start;
+    do {
+      out.push(v[re]);
+      re = prevOf(tw[prevOf(re)]);
+    } while (re !== start && out.length <= this.siteCount);
+    const xy = this.siteXY;
+    let first = 0;
+    for (let i = 1; i < out.length; i++) {
+      const a = out[i], b = out[first];
+      if (xy[2 * a] < xy[2 * b] || (xy[2 * a] === xy[2 * b] && xy[2 * a + 1] < xy[2 * b + 1])) first = i;
+    }
+    return Int32Array.from(out.slice(first).concat(out.slice(0, first)));
+  }
+
+  /**
+   * Delaunay neighbours of a site, counter-clockwise around it. For a hull
+   * site the list starts just after the outside.
+   */
+  neighbors(site: number): Int32Array {
+    if (!Number.isInteger(site) || site < 0 || site >= this.siteCount) {
+      throw new RangeError(`site ${site} is not in 0..${this.siteCount - 1}`);
+    }
+    if (!this.store) {
+      const p = this.path!;
+      const i = p.indexOf(site);
+      const out: number[] = [];
+      if (i > 0) out.push(p[i - 1]);
+      if (i < p.length - 1) out.push(p[i + 1]);
+      return Int32Array.from(out);
+    }
+    this.compact();
+    const v = this.store.vert, tw = this.store.twin;
+    const e0 = this.edgeOfVertex()[site];
+    // Rotate counter-clockwise (e → twin(prev(e))) to the edge towards the ghost, if any.
+    let start = e0;
+    let e = e0;
+    do {
+      if (v[nextOf(e)] === GHOST) { start = tw[prevOf(e)]; break; }
+      e = tw[prevOf(e)];
+    } while (e !== e0);
+    const out: number[] = [];
+    e = start;
+    do {
+      const u = v[nextOf(e)];
+      if (u !== GHOST) out.push(u);
+      e = tw[prevOf(e)];
+    } while (e !== start);
+    return Int32Array.from(out);
+  }
+
+  /** Undirected edges as pairs (a, b) with a < b. */
+  edges(): Int32Array {
+    if (!this.store) {
+      const p = this.path!;
+      const out = new Int32Array(2 * Math.max(0, p.length - 1));
+      for (let i = 0; i + 1 < p.length; i++) {
+        out[2 * i] = Math.min(p[i], p[i + 1]);
+        out[2 * i + 1] = Math.max(p[i], p[i + 1]);
+      }
+      return out;
+    }
+    this.compact();
+    const v = this.store.vert, tw = this.store.twin, len = 3 * this.real;
+    const pairs: number[] = [];
+    for (let e = 0; e < len; e++) {
+      const a = v[e], b = v[nextOf(e)];
+      if (tw[e] >= len || a < b) pairs.push(Math.min(a, b), Math.max(a, b));
+    }
+    return Int32Array.from(pairs);
+  }
+
+  /**
+   * Adds points (any accepted layout) to the triangulation. A point equal to
+   * an existing site, or to an earlier point of the batch, is merged onto
+   * it. Returns the site of each given point, in order.
+   */
+  insert(points: PointInput): Int32Array {
+    const batch = readPoints(points, true);
+    const m = batch.length >> 1;
+    if (m === 0) return new Int32Array(0);
+    const merged = mergeDuplicates(batch);
+    const result = new Int32Array(m);
+    const siteOfBatch = new Int32Array(merged.count);
+    const old = this.siteCount;
+    if (this.store) {
+      this.compact();
+      const store = this.store;
+      // First find which distinct points already are sites, so that new sites
+      // can be numbered in order of first appearance.
+      const ids = new Uint32Array(merged.count);
+      for (let i = 0; i < ids.length; i++) ids[i] = i;
+      const ord = hilbertSort(merged.xy, ids);
+      const existing = new Int32Array(merged.count).fill(-1);
+      for (let i = 0; i < ord.length; i++) {
+        const q = ord[i];
+        store.locate(merged.xy[2 * q], merged.xy[2 * q + 1]);
+        existing[q] = store.hitVertex;
+      }
+      let count = old;
+      for (let q = 0; q < merged.count; q++) siteOfBatch[q] = existing[q] >= 0 ? existing[q] : count++;
+      this.growSites(merged.xy, siteOfBatch, count);
+      store.xy = this.siteXY;
+      store.reserve(2 * count - 2);
+      for (let i = 0; i < ord.length; i++) {
+        const q = ord[i];
+        if (existing[q] < 0) store.insert(siteOfBatch[q]);
+      }
+      this.real = -1;
+      this.vertexEdge = null;
+    } else {
+      // Too few or collinear sites: merge against the old ones and build anew.
+      const both = new Float64Array(2 * old + batch.length);
+      both.set(this.siteXY.subarray(0, 2 * old));
+      both.set(merged.xy, 2 * old);
+      const all = mergeDuplicates(both);
+      for (let q = 0; q < merged.count; q++) siteOfBatch[q] = all.siteOfInput[old + q];
+      this.siteXY = all.xy === both ? both : all.xy;
+      this.siteCount = all.count;
+      this.build('hilbert');
+    }
+    for (let i = 0; i < m; i++) result[i] = siteOfBatch[merged.siteOfInput[i]];
+    const soi = new Int32Array(this.siteOfInput.length + m);
+    soi.set(this.siteOfInput);
+    soi.set(result, this.siteOfInput.length);
+    this.siteOfInput = soi;
+    return result;
+  }
+
+  private growSites(batchXY: Float64Array, siteOfBatch: Int32Array, count: number): void {
+    if (count === this.siteCount) return;
+    const xy = new Float64Array(2 * count);
+    xy.set(this.siteXY.subarray(0, 2 * this.siteCount));
+    for (let q = 0; q < siteOfBatch.length; q++) {
+      const s = siteOfBatch[q];
+      if (s >= this.siteCount) {
+        xy[2 * s] = batchXY[2 * q];
+        xy[2 * s + 1] = batchXY[2 * q + 1];
+      }
+    }
+    this.siteXY = xy;
+    this.siteCount = count;
+  }
+
+  /**
+   * The triangulation as an explicit half-edge mesh of kind 'delaunay':
+   * vertex v is site v, face t is triangle t (as in triangleSites), the last
+   * face is the outer one, walked clockwise along the hull.
+   */
+  toMesh(): HalfEdgeMesh {
+    const vertexXY = this.siteXY.slice(0, 2 * this.siteCount);
+    if (!this.store) return pathMesh(vertexXY, this.path!);
+    this.compact();
+    const store = this.store;
+    const T = this.real, h = store.count - T, len = 3 * T, total = len + h;
+    const v = store.vert, tw = store.twin;
+    const origin = new Int32Array(total), twin = new Int32Array(total);
+    const next = new Int32Array(total), face = new Int32Array(total);
+    origin.set(v.subarray(0, len));
+    for (let e = 0; e < len; e++) {
+      next[e] = nextOf(e);
+      face[e] = (e / 3) | 0;
+      const f = tw[e];
+      // A twin in a ghost is a hull edge; its outer half-edge is numbered by the ghost.
+      twin[e] = f < len ? f : len + ((f / 3) | 0) - T;
+    }
+    for (let g = T; g < store.count; g++) {
+      const re = store.realEdgeOfGhost(g);
+      const H = len + g - T;
+      origin[H] = v[re];
+      twin[H] = tw[re];
+      face[H] = T;
+      // The next outer half-edge starts where this one ends, in the ghost across (target → G).
+      const across = tw[nextOf(re)];
+      next[H] = len + ((across / 3) | 0) - T;
+    }
+    const faceEdge = new Int32Array(T + 1);
+    for (let t = 0; t < T; t++) faceEdge[t] = 3 * t;
+    faceEdge[T] = len;
+    return new HalfEdgeMesh({
+      kind: 'delaunay', vertexXY, origin, twin, next, face, faceEdge,
+      faceSite: new Int32Array(T + 1).fill(-1), outerFace: T,
+    });
+  }
+}
+
+/** A path through collinear sites (or one site), as a mesh with one face. */
+function pathMesh(vertexXY: Float64Array, path: Int32Array): HalfEdgeMesh {
+  const m = path.length;
+  const edges = Math.max(0, m - 1);
+  const origin = new Int32Array(2 * edges), twin = new Int32Array(2 * edges);
+  const next = new Int32Array(2 * edges), face = new Int32Array(2 * edges);
+  // Half-edge 2i runs path[i] → path[i+1]; 2i+1 runs back.
+  for (let i = 0; i < edges; i++) {
+    origin[2 * i] = path[i];
+    origin[2 * i + 1] = path[i + 1];
+    twin[2 * i] = 2 * i + 1;
+    twin[2 * i + 1] = 2 * i;
+    next[2 * i] = i + 1 < edges ? 2 * (i + 1) : 2 * i + 1;
+    next[2 * i + 1] = i > 0 ? 2 * (i - 1) + 1 : 0;
+  }
+  return new HalfEdgeMesh({
+    kind: 'delaunay', vertexXY, origin, twin, next, face,
+    faceEdge: Int32Array.of(edges > 0 ? 0 : -1), faceSite: Int32Array.of(-1), outerFace: 0,
+  });
+}
+
+/**
+ * The Delaunay triangulation of a point set: duplicates merged, every
+ * topological decision exact. Throws InputError on invalid input.
+ */
+export function triangulate(points: PointInput, options: TriangulateOptions = {}): Triangulation {
+  const order = options.order ?? 'hilbert';
+  if (order !== 'hilbert' && order !== 'brio' && order !== 'input') {
+    throw new InputError('bad-option', `order must be 'hilbert', 'brio' or 'input', got ${String(order)}`, -1, 'order');
+  }
+  const sites = mergeDuplicates(readPoints(points));
+  return new Triangulation(sites.xy, sites.count, sites.siteOfInput, order);
+}
