@@ -6,3 +6,11 @@ export { HalfEdgeMesh } from './mesh/mesh.js';
 export type { MeshKind, MeshArrays } from './mesh/mesh.js';
 export { triangulate, Triangulation } from './triangulate/triangulation.js';
 export type { TriangulateOptions, InsertionOrder } from './triangulate/triangulation.js';
+export { checkMesh, assertMesh } from './mesh/check.js';
+export type { MeshCheckOptions, MeshCheckResult } from './mesh/check.js';
+export { writeMeshJSON, readMeshJSON, meshToPlain, MESH_FORMAT, MESH_FORMAT_VERSION } from './mesh/json.js';
+export type { MeshPlain } from './mesh/json.js';
+export {
+  writeTriangulationJSON, readTriangulationJSON, TRIANGULATION_FORMAT, TRIANGULATION_FORMAT_VERSION,
+} from './triangulate/json.js';
+export type { TriangulationPlain } from './triangulate/json.js';

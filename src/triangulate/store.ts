@@ -305,16 +305,20 @@ export class TriangleStore {
   /** Lawson flips until every edge opposite the new point is locally Delaunay. */
   private legalize(): void {
     const v = this.vert, tw = this.twin, xy = this.xy;
+    let stack = this.stack;
     let depth = this.depth;
     while (depth > 0) {
-      const e = this.stack[--depth];
-      const e1 = nextOf(e), e2 = nextOf(e1);
-      const a = v[e], b = v[e1], p = v[e2];
+      const e = stack[--depth];
+      const e1 = e % 3 === 2 ? e - 2 : e + 1;
+      const e2 = e1 % 3 === 2 ? e1 - 2 : e1 + 1;
+      const a = v[e], b = v[e1];
       if (a < 0 || b < 0) continue;
       const f = tw[e];
-      const f1 = nextOf(f), f2 = nextOf(f1);
+      const f1 = f % 3 === 2 ? f - 2 : f + 1;
+      const f2 = f1 % 3 === 2 ? f1 - 2 : f1 + 1;
       const d = v[f2];
       if (d < 0) continue;
+      const p = v[e2];
       if (incircle(
         xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1],
         xy[2 * p], xy[2 * p + 1], xy[2 * d], xy[2 * d + 1]) <= 0) continue;
@@ -322,12 +326,17 @@ export class TriangleStore {
       // (a,b,p) + (b,a,d) become (p,d,b) + (d,p,a).
       v[e] = p; v[e1] = d; v[e2] = b;
       v[f] = d; v[f1] = p; v[f2] = a;
-      this.link(e1, y2);
-      this.link(e2, x1);
-      this.link(f1, x2);
-      this.link(f2, y1);
-      depth = this.push(e1, depth);
-      depth = this.push(f2, depth);
+      tw[e1] = y2; tw[y2] = e1;
+      tw[e2] = x1; tw[x1] = e2;
+      tw[f1] = x2; tw[x2] = f1;
+      tw[f2] = y1; tw[y1] = f2;
+      if (depth + 2 > stack.length) {
+        const grown = new Int32Array(2 * stack.length);
+        grown.set(stack);
+        stack = this.stack = grown;
+      }
+      stack[depth++] = e1;
+      stack[depth++] = f2;
     }
     this.depth = 0;
   }

@@ -1,10 +1,10 @@
 import { orient2d } from 'robust-predicates';
 import { readPoints, type PointInput } from '../core/input.js';
 import { InputError } from '../core/errors.js';
-import { mergeDuplicates } from '../core/dedupe.js';
+import { mergeDuplicates, type SiteSet } from '../core/dedupe.js';
 import { HalfEdgeMesh } from '../mesh/mesh.js';
 import { TriangleStore, GHOST } from './store.js';
-import { brioOrder, hilbertSort } from './order.js';
+import { brioOrder } from './order.js';
 
 /** How sites are ordered before insertion. */
 export type InsertionOrder = 'brio' | 'hilbert' | 'input';
@@ -21,10 +21,12 @@ export interface TriangulateOptions {
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
 
-function orderSites(xy: Float64Array, ids: Uint32Array, order: InsertionOrder): Uint32Array {
-  if (order === 'input') return ids;
-  if (order === 'brio') return brioOrder(xy, ids);
-  return hilbertSort(xy, ids);
+function orderSites(curveOrder: Uint32Array, order: InsertionOrder): Uint32Array {
+  if (order === 'brio') return brioOrder(curveOrder);
+  if (order === 'hilbert') return curveOrder;
+  const ids = new Uint32Array(curveOrder.length);
+  for (let i = 0; i < ids.length; i++) ids[i] = i;
+  return ids;
 }
 
 /** Sites sorted by x, then y: the order of a collinear set along its line. */
@@ -58,12 +60,65 @@ export class Triangulation {
   private vertexEdge: Int32Array | null = null;
 
   /** @internal Use {@link triangulate}. */
-  constructor(xy: Float64Array, count: number, siteOfInput: Int32Array, order: InsertionOrder) {
-    this.siteXY = xy;
-    this.siteCount = count;
-    this.siteOfInput = siteOfInput;
+  constructor(sites: SiteSet, order: InsertionOrder) {
+    this.siteXY = sites.xy;
+    this.siteCount = sites.count;
+    this.siteOfInput = sites.siteOfInput;
     this.dimension = 0;
-    this.build(order);
+    this.build(orderSites(sites.curveOrder, order));
+  }
+
+  /**
+   * @internal Rebuilds a triangulation from a validated Delaunay mesh whose
+   * vertices are the sites: bounded faces become triangles in face order,
+   * outer half-edges become ghosts in half-edge order, so that toMesh()
+   * gives the same mesh back. Used by the JSON reader.
+   */
+  static fromMesh(mesh: HalfEdgeMesh, siteOfInput: Int32Array): Triangulation {
+    const n = mesh.vertexCount;
+    const xy = mesh.vertexXY.slice();
+    const tri = new Triangulation({ xy, count: Math.min(n, 1), siteOfInput, curveOrder: new Uint32Array(Math.min(n, 1)) }, 'input');
+    tri.siteCount = n;
+    const bounded = mesh.faceCount - 1;
+    if (bounded === 0) {
+      tri.dimension = n === 1 ? 0 : 1;
+      tri.path = lexicographic(xy, n);
+      return tri;
+    }
+    const outer: number[] = [];
+    for (let e = 0; e < mesh.halfEdgeCount; e++) if (mesh.face[e] === mesh.outerFace) outer.push(e);
+    const store = new TriangleStore(xy, bounded + outer.length);
+    const slot = new Int32Array(mesh.halfEdgeCount);
+    let t = 0;
+    for (let f = 0; f < mesh.faceCount; f++) {
+      if (f === mesh.outerFace) continue;
+      let e = mesh.faceEdge[f];
+      for (let j = 0; j < 3; j++, e = mesh.next[e]) {
+        slot[e] = 3 * t + j;
+        store.vert[3 * t + j] = mesh.origin[e];
+      }
+      t++;
+    }
+    outer.forEach((H, j) => {
+      const g = bounded + j;
+      slot[H] = 3 * g;
+      store.vert[3 * g] = mesh.origin[H];
+      store.vert[3 * g + 1] = mesh.origin[mesh.next[H]];
+      store.vert[3 * g + 2] = GHOST;
+    });
+    for (let e = 0; e < mesh.halfEdgeCount; e++) store.twin[slot[e]] = slot[mesh.twin[e]];
+    outer.forEach((H, j) => {
+      // Ghost (u, v, G) meets the ghost of the next outer half-edge (v, w, G) along v–G.
+      const g = bounded + j, h = (slot[mesh.next[H]] / 3) | 0;
+      store.twin[3 * g + 1] = 3 * h + 2;
+      store.twin[3 * h + 2] = 3 * g + 1;
+    });
+    store.count = bounded + outer.length;
+    store.last = 0;
+    tri.store = store;
+    tri.dimension = 2;
+    tri.real = bounded;
+    return tri;
   }
 
   get inputCount(): number { return this.siteOfInput.length; }
@@ -86,7 +141,7 @@ export class Triangulation {
     return this.store.vert.subarray(0, 3 * this.real);
   }
 
-  private build(order: InsertionOrder): void {
+  private build(ord: Uint32Array): void {
     const n = this.siteCount, xy = this.siteXY;
     this.store = null;
     this.path = null;
@@ -97,9 +152,6 @@ export class Triangulation {
       this.path = lexicographic(xy, n);
       return;
     }
-    const ids = new Uint32Array(n);
-    for (let i = 0; i < n; i++) ids[i] = i;
-    const ord = orderSites(xy, ids, order);
     const a = ord[0], b = ord[1];
     let k = 2;
     let turn = 0;
@@ -124,30 +176,27 @@ export class Triangulation {
     this.compact();
   }
 
-  /** Renumbers triangles so that the real ones come first, ghosts after. */
+  /**
+   * Renumbers triangles so that the real ones come first and the ghosts
+   * after, by swapping each misplaced ghost with a misplaced real triangle:
+   * one scan, then work proportional to the hull only.
+   */
   private compact(): void {
     const store = this.store;
     if (!store || this.real >= 0) return;
-    const count = store.count;
-    const map = new Int32Array(count);
-    let r = 0;
-    for (let t = 0; t < count; t++) if (!store.isGhost(t)) map[t] = r++;
-    let g = r;
-    for (let t = 0; t < count; t++) if (store.isGhost(t)) map[t] = g++;
-    const vert = new Int32Array(3 * count), twin = new Int32Array(3 * count);
-    const ov = store.vert, ot = store.twin;
-    for (let t = 0; t < count; t++) {
-      const nt = 3 * map[t], o = 3 * t;
-      for (let j = 0; j < 3; j++) {
-        vert[nt + j] = ov[o + j];
-        const f = ot[o + j];
-        twin[nt + j] = 3 * map[(f / 3) | 0] + (f % 3);
-      }
+    const v = store.vert, tw = store.twin, count = store.count;
+    let ghosts = 0;
+    for (let e = 0; e < 3 * count; e++) if (v[e] < 0) ghosts++;
+    const real = count - ghosts;
+    let r = count - 1;
+    for (let g = 0; g < real; g++) {
+      if (v[3 * g] >= 0 && v[3 * g + 1] >= 0 && v[3 * g + 2] >= 0) continue;
+      while (store.isGhost(r)) r--;
+      swapTriangles(v, tw, g, r);
+      if (store.last === r) store.last = g;
+      r--;
     }
-    store.vert = vert;
-    store.twin = twin;
-    store.last = map[store.last];
-    this.real = r;
+    this.real = real;
     this.vertexEdge = null;
   }
 
@@ -261,9 +310,7 @@ export class Triangulation {
       const store = this.store;
       // First find which distinct points already are sites, so that new sites
       // can be numbered in order of first appearance.
-      const ids = new Uint32Array(merged.count);
-      for (let i = 0; i < ids.length; i++) ids[i] = i;
-      const ord = hilbertSort(merged.xy, ids);
+      const ord = merged.curveOrder;
       const existing = new Int32Array(merged.count).fill(-1);
       for (let i = 0; i < ord.length; i++) {
         const q = ord[i];
@@ -288,9 +335,9 @@ export class Triangulation {
       both.set(merged.xy, 2 * old);
       const all = mergeDuplicates(both);
       for (let q = 0; q < merged.count; q++) siteOfBatch[q] = all.siteOfInput[old + q];
-      this.siteXY = all.xy === both ? both : all.xy;
+      this.siteXY = all.xy;
       this.siteCount = all.count;
-      this.build('hilbert');
+      this.build(all.curveOrder);
     }
     for (let i = 0; i < m; i++) result[i] = siteOfBatch[merged.siteOfInput[i]];
     const soi = new Int32Array(this.siteOfInput.length + m);
@@ -357,6 +404,27 @@ export class Triangulation {
   }
 }
 
+/** Exchanges the numbers of triangles g and r, keeping every twin link right. */
+function swapTriangles(v: Int32Array, tw: Int32Array, g: number, r: number): void {
+  const relabel = (x: number): number => {
+    const t = (x / 3) | 0;
+    return t === g ? 3 * r + (x % 3) : t === r ? 3 * g + (x % 3) : x;
+  };
+  for (let j = 0; j < 3; j++) {
+    const a = 3 * g + j, b = 3 * r + j;
+    const tv = v[a]; v[a] = v[b]; v[b] = tv;
+    const tt = tw[a]; tw[a] = tw[b]; tw[b] = tt;
+  }
+  for (let j = 0; j < 3; j++) {
+    tw[3 * g + j] = relabel(tw[3 * g + j]);
+    tw[3 * r + j] = relabel(tw[3 * r + j]);
+  }
+  for (let j = 0; j < 3; j++) {
+    tw[tw[3 * g + j]] = 3 * g + j;
+    tw[tw[3 * r + j]] = 3 * r + j;
+  }
+}
+
 /** A path through collinear sites (or one site), as a mesh with one face. */
 function pathMesh(vertexXY: Float64Array, path: Int32Array): HalfEdgeMesh {
   const m = path.length;
@@ -387,6 +455,5 @@ export function triangulate(points: PointInput, options: TriangulateOptions = {}
   if (order !== 'hilbert' && order !== 'brio' && order !== 'input') {
     throw new InputError('bad-option', `order must be 'hilbert', 'brio' or 'input', got ${String(order)}`, -1, 'order');
   }
-  const sites = mergeDuplicates(readPoints(points));
-  return new Triangulation(sites.xy, sites.count, sites.siteOfInput, order);
+  return new Triangulation(mergeDuplicates(readPoints(points)), order);
 }
