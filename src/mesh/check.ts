@@ -262,7 +262,7 @@ function faceSign(s: Shape, c: Cycles, f: number): number {
   const v0 = origin[e0];
   const x0 = xy[2 * v0];
   const y0 = xy[2 * v0 + 1];
-  if (n === 333) {
+  if (n === 3) {
     const e1 = next[e0];
     const v1 = origin[e1];
     const v2 = origin[next[e1]];

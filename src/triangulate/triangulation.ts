@@ -237,7 +237,8 @@ export class Triangulation {
 
   /**
    * Delaunay neighbours of a site, counter-clockwise around it. For a hull
-   * site the list starts just after the outside.
+   * site the list starts just after the outside; for an interior site, at
+   * its smallest neighbour.
    */
   neighbors(site: number): Int32Array {
     if (!Number.isInteger(site) || site < 0 || site >= this.siteCount) {
@@ -257,8 +258,9 @@ export class Triangulation {
     // Rotate counter-clockwise (e → twin(prev(e))) to the edge towards the ghost, if any.
     let start = e0;
     let e = e0;
+    let onHull = false;
     do {
-      if (v[nextOf(e)] === GHOST) { start = tw[prevOf(e)]; break; }
+      if (v[nextOf(e)] === GHOST) { start = tw[prevOf(e)]; onHull = true; break; }
       e = tw[prevOf(e)];
     } while (e !== e0);
     const out: number[] = [];
@@ -268,6 +270,12 @@ export class Triangulation {
       if (u !== GHOST) out.push(u);
       e = tw[prevOf(e)];
     } while (e !== start);
+    if (!onHull && out.length > 0) {
+      // An interior site: start at its smallest neighbour, so the list depends only on the triangulation.
+      let m = 0;
+      for (let i = 1; i < out.length; i++) if (out[i] < out[m]) m = i;
+      return Int32Array.from(out.slice(m).concat(out.slice(0, m)));
+    }
     return Int32Array.from(out);
   }
 

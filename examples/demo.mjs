@@ -1,0 +1,38 @@
+// ambit demo: the invented town of Quillon Vale and its facilities.
+// Run from a fresh clone with `npm ci && npm run demo`.
+import { readFileSync, mkdirSync, writeFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { dirname, join } from 'node:path';
+import { triangulate, checkMesh, writeTriangulationJSON, writeMeshJSON } from 'ambit';
+
+const here = dirname(fileURLToPath(import.meta.url));
+const town = JSON.parse(readFileSync(join(here, 'data', 'quillon-vale.json'), 'utf8'));
+const facilities = town.facilities;
+
+const tri = triangulate(facilities.map((f) => ({ x: f.x, y: f.y })));
+const check = checkMesh(tri.toMesh());
+
+// Name every site by the first facility record that landed on it.
+const nameOfSite = [];
+facilities.forEach((f, i) => { nameOfSite[tri.siteOfInput[i]] ??= f.name; });
+
+console.log('ambit demo: Quillon Vale (an invented town)');
+console.log(`  ${facilities.length} facility records -> ${tri.siteCount} sites (${tri.mergedCount} merged duplicate)`);
+facilities.forEach((f, i) => {
+  const s = tri.siteOfInput[i];
+  if (nameOfSite[s] !== f.name) console.log(`    record ${f.id} "${f.name}" shares its location with "${nameOfSite[s]}"`);
+});
+console.log(`  Delaunay triangulation: ${tri.triangleCount} triangles, ${tri.edges().length / 2} edges, mesh valid: ${check.ok}`);
+console.log(`  outermost facilities (hull, counter-clockwise): ${Array.from(tri.hull(), (s) => nameOfSite[s]).join(', ')}`);
+console.log('  nearest-neighbour structure (Delaunay neighbours of each facility):');
+for (let s = 0; s < tri.siteCount; s++) {
+  console.log(`    ${nameOfSite[s].padEnd(24)} ${Array.from(tri.neighbors(s), (t) => nameOfSite[t]).join(', ')}`);
+}
+
+const out = join(here, '..', 'out', 'demo');
+mkdirSync(out, { recursive: true });
+writeFileSync(join(out, 'triangulation.json'), writeTriangulationJSON(tri));
+writeFileSync(join(out, 'mesh.json'), writeMeshJSON(tri.toMesh()));
+console.log(`  wrote out/demo/triangulation.json and out/demo/mesh.json`);
+console.log('  Caution: these are straight-line geometric neighbourhoods, not travel-time service areas.');
+console.log('  For emergency or regulated services, defer to local codes and licensed practice.');
