@@ -338,7 +338,7 @@ export class Triangulation {
       this.vertexEdge = null;
     } else {
       // Too few or collinear sites: merge against the old ones and build anew.
-      const both = new Float64Array(2 * old + batch.length);
+      const both = new Float64Array(2 * old + merged.xy.length);
       both.set(this.siteXY.subarray(0, 2 * old));
       both.set(merged.xy, 2 * old);
       const all = mergeDuplicates(both);
