@@ -9,6 +9,9 @@ import fc from 'fast-check';
  * x^2 + y^2 = R^2 (cos/sin points are not exactly cocircular), and perturbed
  * grids move coordinates by exactly one ulp. Every nonzero coordinate stays
  * inside ambit's accepted range [2^-120, 2^120].
+ *
+ * Point arrays use `size: 'max'`: fast-check's default size caps arrays at
+ * about 10 elements whatever maxLength says.
  */
 
 export type Pt = [number, number];
@@ -92,7 +95,7 @@ export function uniform(maxN: number, minN = 1): fc.Arbitrary<number[]> {
   return fc
     .record({
       scale: fc.integer({ min: -10, max: 30 }),
-      pts: fc.array(fc.tuple(unit53, unit53), { minLength: minN, maxLength: maxN }),
+      pts: fc.array(fc.tuple(unit53, unit53), { minLength: minN, maxLength: maxN, size: 'max' }),
     })
     .map(({ scale, pts }) => flatten(pts.map(([x, y]) => [x * 2 ** scale, y * 2 ** scale] as Pt)));
 }
@@ -106,7 +109,7 @@ export function duplicateHeavy(maxN: number): fc.Arbitrary<number[]> {
     fc.array(fc.tuple(unit53, unit53), { minLength: 1, maxLength: 8 }),
   );
   return fc
-    .record({ distinct, picks: fc.array(fc.nat({ max: 1000 }), { minLength: 1, maxLength: maxN }) })
+    .record({ distinct, picks: fc.array(fc.nat({ max: 1000 }), { minLength: 1, maxLength: maxN, size: 'max' }) })
     .map(({ distinct, picks }) => flatten(picks.map((k) => distinct[k % distinct.length])));
 }
 
@@ -122,7 +125,7 @@ export function collinear(maxN: number): fc.Arbitrary<number[]> {
       base: fc.tuple(fc.integer({ min: -(2 ** 20), max: 2 ** 20 }), fc.integer({ min: -(2 ** 20), max: 2 ** 20 })),
       dir: fc.tuple(fc.integer({ min: -1024, max: 1024 }), fc.integer({ min: 1, max: 1024 })),
       shift: fc.integer({ min: 0, max: 10 }),
-      ks: fc.array(fc.integer({ min: -4096, max: 4096 }), { minLength: 1, maxLength: maxN }),
+      ks: fc.array(fc.integer({ min: -4096, max: 4096 }), { minLength: 1, maxLength: maxN, size: 'max' }),
     })
     .map(({ kind, base, dir, shift, ks }) => {
       const [dx, dy] = kind === 'horizontal' ? [1, 0] : kind === 'vertical' ? [0, 1] : dir;
@@ -137,9 +140,10 @@ export function collinearMixed(maxN: number): fc.Arbitrary<number[]> {
     .record({
       base: fc.tuple(fc.integer({ min: -50, max: 50 }), fc.integer({ min: -50, max: 50 })),
       dir: fc.tuple(fc.integer({ min: -7, max: 7 }), fc.integer({ min: 1, max: 7 })),
-      ks: fc.uniqueArray(fc.integer({ min: -20, max: 20 }), { minLength: 3, maxLength: Math.max(3, maxN >> 1) }),
+      ks: fc.uniqueArray(fc.integer({ min: -20, max: 20 }), { minLength: 3, maxLength: Math.max(3, maxN >> 1), size: 'max' }),
       others: fc.array(fc.tuple(fc.integer({ min: -150, max: 150 }), fc.integer({ min: -150, max: 150 })), {
         maxLength: maxN >> 1,
+        size: 'max',
       }),
       keys: keysArb,
     })

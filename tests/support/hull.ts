@@ -64,3 +64,20 @@ export function monotoneChainHull(xy: ArrayLike<number>): [number, number][] {
   upper.pop();
   return lower.concat(upper);
 }
+
+/**
+ * 0 for one distinct point, 1 when all points are collinear (exact orient),
+ * else 2: the dimension a triangulation of the points must report.
+ */
+export function affineDimension(xy: ArrayLike<number>): 0 | 1 | 2 {
+  const n = xy.length >> 1;
+  let j = -1;
+  for (let i = 1; i < n; i++) {
+    if (xy[2 * i] !== xy[0] || xy[2 * i + 1] !== xy[1]) { j = i; break; }
+  }
+  if (j < 0) return 0;
+  for (let i = 1; i < n; i++) {
+    if (orient(xy[0], xy[1], xy[2 * j], xy[2 * j + 1], xy[2 * i], xy[2 * i + 1]) !== 0) return 2;
+  }
+  return 1;
+}
