@@ -1,5 +1,6 @@
 import { FormatError } from '../core/errors.js';
 import { MAX_COORDINATE, MIN_COORDINATE } from '../core/limits.js';
+import { parseJSONInput } from '../core/untrusted.js';
 import { checkMesh } from './check.js';
 import { HalfEdgeMesh, type MeshKind } from './mesh.js';
 
@@ -111,15 +112,7 @@ function indexArray(list: ArrayLike<unknown>, path: string, lo: number, hi: numb
  * Unknown extra fields are ignored. -0 coordinates are read as 0.
  */
 export function readMeshJSON(input: string | unknown): HalfEdgeMesh {
-  let data: unknown = input;
-  if (typeof input === 'string') {
-    try {
-      data = JSON.parse(input);
-    } catch (err) {
-      fail('bad-json', `not valid JSON (${err instanceof Error ? err.message : String(err)})`, '');
-    }
-  }
-  const root = objectAt(data, '');
+  const root = objectAt(parseJSONInput(input, 'mesh JSON'), '');
   if (root.format !== MESH_FORMAT) {
     fail('bad-format', `format is ${root.format === undefined ? 'missing' : JSON.stringify(root.format)}, expected "${MESH_FORMAT}"`, 'format');
   }

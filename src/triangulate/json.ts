@@ -1,4 +1,5 @@
 import { FormatError } from '../core/errors.js';
+import { parseJSONInput } from '../core/untrusted.js';
 import { orient } from '../core/predicates.js';
 import { meshToPlain, readMeshJSON, type MeshPlain } from '../mesh/json.js';
 import { Triangulation } from './triangulation.js';
@@ -40,14 +41,7 @@ function fail(code: string, message: string, path: string): never {
  * "siteOfInput[12]", ...).
  */
 export function readTriangulationJSON(input: string | unknown): Triangulation {
-  let data: unknown = input;
-  if (typeof input === 'string') {
-    try {
-      data = JSON.parse(input);
-    } catch (err) {
-      fail('bad-json', `not valid JSON (${err instanceof Error ? err.message : String(err)})`, '');
-    }
-  }
+  const data = parseJSONInput(input, 'triangulation JSON');
   if (data === null || typeof data !== 'object' || Array.isArray(data)) fail('bad-type', 'expected an object', '');
   const root = data as Record<string, unknown>;
   if (root.format !== TRIANGULATION_FORMAT) {
@@ -60,7 +54,10 @@ export function readTriangulationJSON(input: string | unknown): Triangulation {
   try {
     mesh = readMeshJSON(root.mesh);
   } catch (err) {
-    if (err instanceof FormatError) throw new FormatError(err.code, `mesh.${err.message}`, err.path ? `mesh.${err.path}` : 'mesh');
+    if (err instanceof FormatError) {
+      const path = err.path === '' || err.path === 'mesh' ? 'mesh' : `mesh.${err.path}`;
+      throw new FormatError(err.code, `triangulation JSON, ${err.message}`, path);
+    }
     throw err;
   }
   if (mesh.kind !== 'delaunay') fail('bad-kind', `the mesh is of kind "${mesh.kind}", expected "delaunay"`, 'mesh.kind');

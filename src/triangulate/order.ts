@@ -1,3 +1,5 @@
+import { mulberry32 } from '../core/random.js';
+
 /**
  * BRIO, the biased randomised insertion order (Amenta, Choi, Rote 2003):
  * each site goes to the last round with probability 1/2, to the one before
@@ -6,17 +8,6 @@
  * while the curve keeps each walk short.
  */
 
-/** A small seeded generator (mulberry32): the order must be deterministic. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return (t ^ (t >>> 14)) >>> 0;
-  };
-}
 
 /** Splits `curveOrder` (sites along the Hilbert curve) into BRIO rounds, stably. */
 export function brioOrder(curveOrder: Uint32Array, seed = 0x2545f491, minRound = 64): Uint32Array {

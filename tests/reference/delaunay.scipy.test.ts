@@ -1,5 +1,6 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
+import { mulberry32 } from '../../src/core/random.js';
 import { describe, expect, it } from 'vitest';
 import { orient, triangulate } from '../../src/index.js';
 import { canonicalTriangles, distinctCount, isStrictlyDelaunay } from '../support/brute.js';
@@ -60,16 +61,10 @@ describe('Delaunay triangles equal scipy.spatial.Delaunay on committed fixtures'
   }
 });
 
-/** mulberry32: a small seeded PRNG, so a failing live case can be replayed from its seed. */
+/** Uniform numbers in [0, 1) from a seed, so a failing live case can be replayed. */
 function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const words = mulberry32(seed);
+  return () => words() / 4294967296;
 }
 
 interface LiveCase { name: string; points: [number, number][]; shift: [number, number] }

@@ -1,48 +1,12 @@
 import { describe, it, expect } from 'vitest';
 import { AmbitError } from '../../src/core/errors.js';
 import { assertMesh, checkMesh, MAX_MESH_PROBLEMS } from '../../src/mesh/check.js';
+import { meshFromCycles } from '../support/meshes.js';
 import { HalfEdgeMesh, type MeshArrays, type MeshKind } from '../../src/mesh/mesh.js';
 
 // Invented coordinates throughout; every expectation below is worked out by
 // hand in the comment beside it.
 
-/**
- * Builds a mesh from face cycles given as vertex lists; the last cycle is the
- * outer face. Twins are matched by their (from, to) vertex pair.
- */
-function meshFromCycles(kind: MeshKind, xy: number[], cycles: number[][]): HalfEdgeMesh {
-  const origin: number[] = [];
-  const next: number[] = [];
-  const face: number[] = [];
-  const faceEdge: number[] = [];
-  cycles.forEach((cyc, f) => {
-    const base = origin.length;
-    faceEdge.push(cyc.length > 0 ? base : -1);
-    cyc.forEach((v, i) => {
-      origin.push(v);
-      next.push(base + ((i + 1) % cyc.length));
-      face.push(f);
-    });
-  });
-  const byPair = new Map<string, number>();
-  origin.forEach((v, e) => byPair.set(`${v},${origin[next[e]]}`, e));
-  const twin = origin.map((v, e) => {
-    const t = byPair.get(`${origin[next[e]]},${v}`);
-    if (t === undefined) throw new Error(`test mesh: half-edge ${e} has no twin`);
-    return t;
-  });
-  return new HalfEdgeMesh({
-    kind,
-    vertexXY: Float64Array.from(xy),
-    origin: Int32Array.from(origin),
-    twin: Int32Array.from(twin),
-    next: Int32Array.from(next),
-    face: Int32Array.from(face),
-    faceEdge: Int32Array.from(faceEdge),
-    faceSite: new Int32Array(cycles.length).fill(-1),
-    outerFace: cycles.length - 1,
-  });
-}
 
 type Field = Exclude<keyof MeshArrays, 'kind' | 'outerFace'>;
 

@@ -2,30 +2,11 @@ import { describe, it, expect } from 'vitest';
 import { FormatError } from '../../src/core/errors.js';
 import { checkMesh } from '../../src/mesh/check.js';
 import { MESH_FORMAT, MESH_FORMAT_VERSION, meshToPlain, readMeshJSON, writeMeshJSON } from '../../src/mesh/json.js';
+import { meshFromCycles } from '../support/meshes.js';
 import { HalfEdgeMesh, type MeshKind } from '../../src/mesh/mesh.js';
 
 // Invented coordinates throughout.
 
-/** Builds a mesh from face cycles (vertex lists); the last cycle is the outer face. */
-function meshFromCycles(kind: MeshKind, xy: number[], cycles: number[][], faceSite?: number[]): HalfEdgeMesh {
-  const origin: number[] = [];
-  const next: number[] = [];
-  const face: number[] = [];
-  const faceEdge: number[] = [];
-  cycles.forEach((cyc, f) => {
-    const base = origin.length;
-    faceEdge.push(base);
-    cyc.forEach((v, i) => { origin.push(v); next.push(base + ((i + 1) % cyc.length)); face.push(f); });
-  });
-  const byPair = new Map<string, number>();
-  origin.forEach((v, e) => byPair.set(`${v},${origin[next[e]]}`, e));
-  const twin = origin.map((v, e) => byPair.get(`${origin[next[e]]},${v}`) ?? -1);
-  return new HalfEdgeMesh({
-    kind, vertexXY: Float64Array.from(xy), origin: Int32Array.from(origin), twin: Int32Array.from(twin),
-    next: Int32Array.from(next), face: Int32Array.from(face), faceEdge: Int32Array.from(faceEdge),
-    faceSite: Int32Array.from(faceSite ?? cycles.map(() => -1)), outerFace: cycles.length - 1,
-  });
-}
 
 // Triangle (0,0) (1,0) (0,1), counter-clockwise; outer face walks it backwards.
 // Half-edges: 0: 0->1, 1: 1->2, 2: 2->0, 3: 0->2, 4: 2->1, 5: 1->0.
