@@ -17,4 +17,11 @@ export const cases = [
     scipy: 'delaunay',
     size: (t) => t.triangleCount,
   },
+  {
+    // The same build in BRIO order, to keep the choice of default insertion order measured.
+    name: 'triangulate-brio',
+    run: (points) => triangulate(points, { order: 'brio' }),
+    scipy: null,
+    size: (t) => t.triangleCount,
+  },
 ];

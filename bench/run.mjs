@@ -2,7 +2,7 @@
 // (also --quick, --no-ref, --seed S, --help). See bench/README.md for the fields.
 // Needs `node --expose-gc` (npm run bench passes it) and a built dist/.
 import { spawnSync } from 'node:child_process';
-import { existsSync, unlinkSync, writeFileSync } from 'node:fs';
+import { unlinkSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -10,14 +10,17 @@ import { performance } from 'node:perf_hooks';
 import { distributions, makeRng } from './distributions.mjs';
 
 const USAGE = `usage: npm run bench -- [--case NAME]... [--dist NAME]... [--n N]... [--json]
-                             [--quick] [--no-ref] [--seed S]
+                             [--quick] [--no-ref] [--ref-timeout S] [--seed S] [--gc-each]
   --case NAME   benchmark case (repeatable; default: triangulate)
   --dist NAME   point distribution (repeatable; default: all)
   --n N         point count, e.g. 10000 or 1e5 (repeatable; default: 1e4 1e5 1e6)
   --json        one JSON object per (case, dist, n) on stdout instead of a table
   --quick       smoke run: default n 1e4 only, 3 timed runs
   --no-ref      skip the scipy reference (refMs/ratioToRef null)
-  --seed S      seed for the random distributions and sort keys (default 1)`;
+  --ref-timeout S  seconds one scipy row may take before it is abandoned (default 120);
+                the same case and dist is then not tried at larger n
+  --seed S      seed for the random distributions and sort keys (default 1)
+  --gc-each     force a full GC before every timed run (see bench/README.md)`;
 
 // The Debian interpreter is the one that carries scipy 1.10 on the project machines;
 // AMBIT_BENCH_PYTHON overrides it for other setups.
@@ -33,7 +36,7 @@ function fail(msg) {
 }
 
 function parseArgs(argv) {
-  const opts = { cases: [], dists: [], ns: [], json: false, quick: false, ref: true, seed: 1 };
+  const opts = { cases: [], dists: [], ns: [], json: false, quick: false, ref: true, refTimeout: 120, seed: 1, gcEach: false };
   for (let i = 0; i < argv.length; i++) {
     let arg = argv[i];
     let value;
@@ -63,8 +66,15 @@ function parseArgs(argv) {
         opts.seed = s;
         break;
       }
+      case '--ref-timeout': {
+        const s = Number(take());
+        if (!(s > 0)) fail('--ref-timeout wants a positive number of seconds');
+        opts.refTimeout = s;
+        break;
+      }
       case '--json': opts.json = true; break;
       case '--quick': opts.quick = true; break;
+      case '--gc-each': opts.gcEach = true; break;
       case '--no-ref': opts.ref = false; break;
       case '--help': case '-h': process.stdout.write(`${USAGE}\n`); process.exit(0); break;
       default: fail(`unknown argument ${argv[i]}`);
@@ -90,13 +100,18 @@ function median(xs) {
 // them before we are done looking (timing) or measuring (memory).
 const holder = { value: null };
 
-/** One warm-up, then `reps` timed runs of fn(), each after a full collection. */
-function timeRuns(fn, reps, before) {
+/**
+ * One warm-up, then `reps` timed runs of fn(). No forced collection between runs by
+ * default: a full gc() also throws away optimised code that embeds objects which died,
+ * so forcing one before every run measures re-optimisation, not steady state. With
+ * gcEach (--gc-each) it is forced anyway, to show what a major GC between calls costs.
+ */
+function timeRuns(fn, reps, before, gcEach) {
   const times = [];
   for (let r = -1; r < reps; r++) {
     const arg = before ? before() : undefined;
     holder.value = null;
-    globalThis.gc();
+    if (gcEach) globalThis.gc();
     const t0 = performance.now();
     holder.value = fn(arg);
     const t1 = performance.now();
@@ -130,11 +145,11 @@ function bytesRetained(fn, points, inspect) {
 }
 
 function probeScipy() {
-  if (!existsSync(PYTHON)) {
+  const res = spawnSync(PYTHON, [SCIPY_SCRIPT, '--probe'], { encoding: 'utf8' });
+  if (res.error && res.error.code === 'ENOENT') {
     log(`bench: ${PYTHON} not found; refMs and ratioToRef will be null`);
     return null;
   }
-  const res = spawnSync(PYTHON, [SCIPY_SCRIPT, '--probe'], { encoding: 'utf8' });
   if (res.status !== 0) {
     log(`bench: scipy not usable under ${PYTHON} (${(res.stderr || res.error || '').toString().trim()}); refMs null`);
     return null;
@@ -142,16 +157,20 @@ function probeScipy() {
   return JSON.parse(res.stdout.trim().split('\n').pop());
 }
 
-function runScipy(op, points, reps) {
+function runScipy(op, points, reps, timeoutS) {
   const file = path.join(os.tmpdir(), `ambit-bench-${process.pid}-${Date.now()}.f64`);
   // Native byte order on both sides: same machine, python reads it as numpy float64.
   writeFileSync(file, new Uint8Array(points.buffer, points.byteOffset, points.byteLength));
   try {
-    const res = spawnSync(PYTHON, [SCIPY_SCRIPT, '--op', op, '--file', file, '--repeats', String(reps)], {
+    // The script plans its runs to end by 80% of the limit, leaving a margin for noise.
+    const args = [SCIPY_SCRIPT, '--op', op, '--file', file, '--repeats', String(reps), '--budget', String(0.8 * timeoutS)];
+    const res = spawnSync(PYTHON, args, {
       encoding: 'utf8',
       stdio: ['ignore', 'pipe', 'inherit'],
       maxBuffer: 1 << 24,
+      timeout: timeoutS * 1000,
     });
+    if (res.error && res.error.code === 'ETIMEDOUT') return { timedOut: true };
     if (res.status !== 0) {
       log(`bench: scipy ${op} failed (exit ${res.status}${res.error ? `, ${res.error.message}` : ''}); refMs null`);
       return null;
@@ -220,6 +239,8 @@ async function main() {
   const total = ns.length * distNames.length * chosen.length;
   let done = 0;
   let failures = 0;
+  // "case/dist" -> smallest n at which scipy ran out of time; larger n are not tried.
+  const refTimedOut = new Map();
   for (const n of ns) {
     for (const distName of distNames) {
       const points = distributions[distName](n, opts.seed);
@@ -234,27 +255,46 @@ async function main() {
         log(`${label}: ${reps} runs after a warm-up...`);
         let row;
         try {
-          const times = timeRuns(() => c.run(points), reps);
+          const times = timeRuns(() => c.run(points), reps, null, opts.gcEach);
           const ms = median(times);
 
           // Sort baseline on fresh random keys, copied outside the timed region.
           const keys = new Float64Array(actualN);
           const rng = makeRng(opts.seed + 7919);
           for (let i = 0; i < actualN; i++) keys[i] = rng.next();
-          const sortTimes = timeRuns((copy) => copy.sort(), reps, () => keys.slice());
+          const sortTimes = timeRuns((copy) => copy.sort(), reps, () => keys.slice(), opts.gcEach);
           const sortMs = median(sortTimes);
 
-          const retained = bytesRetained(c.run, points, c.size);
-          const bytesPerPoint = retained.bytes / actualN;
-          const size = c.size ? retained.facts : null;
+          // Median over as many builds as timed runs: the heap readings jitter by a few
+          // hundred kB (GC bookkeeping, compiled code), which matters below ~1e4 points.
+          const retained = [];
+          let size = null;
+          for (let r = 0; r < reps; r++) {
+            const m = bytesRetained(c.run, points, r === 0 ? c.size : null);
+            if (r === 0 && c.size) size = m.facts;
+            retained.push(m.bytes);
+          }
+          const bytesPerPoint = median(retained) / actualN;
 
           let refMs = null;
           if (scipy && c.scipy) {
             if (!scipy.ops.includes(c.scipy)) {
               log(`bench: scipy_ref.py has no op ${c.scipy}; refMs null`);
             } else {
-              const ref = runScipy(c.scipy, points, reps);
-              if (ref) {
+              const key = `${c.name}/${distName}`;
+              const skip = refTimedOut.get(key) <= actualN;
+              const ref = skip ? null : runScipy(c.scipy, points, reps, opts.refTimeout);
+              if (skip) {
+                log(`${label}: scipy skipped: it ran out of time at n=${refTimedOut.get(key)}; refMs null`);
+              } else if (ref && ref.timedOut) {
+                refTimedOut.set(key, actualN);
+                log(`${label}: scipy did not finish within ${opts.refTimeout} s; refMs null`);
+              } else if (ref) {
+                if (ref.reduced) {
+                  log(`${label}: scipy is slow here: ` + (ref.warmupOnly
+                    ? `its warm-up run is the only sample (instead of ${reps} runs)`
+                    : `median of ${ref.runs.length} run(s) instead of ${reps}`));
+                }
                 refMs = ref.ms;
                 if (size !== null && (ref.size !== size || ref.skipped)) {
                   log(`${label}: note: scipy ${c.scipy} size ${ref.size}` +
