@@ -14,3 +14,7 @@ export {
   writeTriangulationJSON, readTriangulationJSON, TRIANGULATION_FORMAT, TRIANGULATION_FORMAT_VERSION,
 } from './triangulate/json.js';
 export type { TriangulationPlain } from './triangulate/json.js';
+export { voronoi, VoronoiDiagram } from './diagram/voronoi.js';
+export type { VoronoiOptions, CellNeighbors } from './diagram/voronoi.js';
+export { readClipRegion } from './diagram/region.js';
+export type { ClipRegion, RectRegion } from './diagram/region.js';

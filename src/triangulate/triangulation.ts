@@ -211,6 +211,23 @@ export class Triangulation {
   }
 
   /**
+   * @internal The implicit layout behind the triangulation: `vert` and
+   * `twin` per half-edge, three per triangle; triangles 0..real-1 are real,
+   * real..count-1 are ghosts (one per hull edge, holding GHOST = -1).
+   * Views, valid until the next insert. Null when dimension < 2.
+   */
+  implicitLayout(): { vert: Int32Array; twin: Int32Array; real: number; count: number } | null {
+    if (!this.store) return null;
+    this.compact();
+    return { vert: this.store.vert, twin: this.store.twin, real: this.real, count: this.store.count };
+  }
+
+  /** @internal The sites in order along their line when dimension < 2. */
+  linearOrder(): Int32Array | null {
+    return this.path;
+  }
+
+  /**
    * Sites on the convex hull, counter-clockwise, starting at the smallest
    * site by (x, y). Sites lying on a hull edge are included. For collinear
    * sites: all of them in order along the line; for one site: that site.

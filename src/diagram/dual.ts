@@ -1,0 +1,452 @@
+import { incircle, orient2d } from 'robust-predicates';
+import { HalfEdgeMesh } from '../mesh/mesh.js';
+import type { Triangulation } from '../triangulate/triangulation.js';
+import { ConvexRegion } from './clip.js';
+
+const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
+const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
+
+/** Boundary points closer than this (times the region size) along a side are one point. */
+const MERGE_TOLERANCE = 1e-12;
+/** Face number of the outer face while building. */
+const OUTER = -2;
+
+/** A growable list of points. */
+class Points {
+  xy = new Float64Array(1024);
+  count = 0;
+  reserve(extra: number): void {
+    if (2 * (this.count + extra) <= this.xy.length) return;
+    const grown = new Float64Array(Math.max(2 * (this.count + extra), 2 * this.xy.length));
+    grown.set(this.xy);
+    this.xy = grown;
+  }
+  add(x: number, y: number): number {
+    if (2 * this.count + 2 > this.xy.length) this.reserve(this.count + 1);
+    this.xy[2 * this.count] = x;
+    this.xy[2 * this.count + 1] = y;
+    return this.count++;
+  }
+}
+
+/**
+ * The Voronoi diagram of a triangulation's sites, clipped to a convex
+ * region, as a half-edge mesh of kind 'voronoi'.
+ *
+ * Voronoi half-edge x (x < 3T) is the dual of Delaunay half-edge x: it runs
+ * from the circumcentre of the triangle across x to the circumcentre of x's
+ * own triangle, with x's origin site on its left. Each hull edge adds one
+ * half-edge, numbered after, for the far side of its ray. Triangles whose
+ * circumcircles coincide (cocircular sites, decided exactly) share one
+ * vertex, and the edges between them vanish: no zero-length edges. Where
+ * the diagram meets the region's boundary, the boundary is cut; each piece
+ * belongs to the cell on the left of the edge arriving at its start.
+ */
+export function clippedVoronoi(tri: Triangulation, regionXY: Float64Array): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
+  const b = new DiagramBuilder(tri, new ConvexRegion(regionXY));
+  b.buildEdges();
+  b.buildRing();
+  b.assignOwners();
+  b.linkBoundary();
+  return b.compact();
+}
+
+class DiagramBuilder {
+  readonly region: ConvexRegion;
+  readonly sites: Float64Array;
+  readonly n: number;
+  readonly tri: Triangulation;
+  readonly points = new Points();
+  /** Half-edges of the unclipped diagram; origin -1 marks a dropped one. */
+  total = 0;
+  origin = new Int32Array(0);
+  twin = new Int32Array(0);
+  face = new Int32Array(0);
+  next = new Int32Array(0);
+  /** Voronoi vertices are points 0..vertexCount-1. */
+  vertexCount = 0;
+  /** Per vertex: 1 strictly inside, 2 inside on the boundary, 0 outside. */
+  inside = new Uint8Array(0);
+  readonly sideEvents: number[][];
+  clipStart = -1;
+  clipEnd = -1;
+  private readonly nearLimit: number;
+  // The boundary ring, its owners, and the full arrays with the boundary half-edges.
+  ring: number[] = [];
+  owner = new Int32Array(0);
+  remap = new Int32Array(0);
+  cornerBase = 0;
+  outgoing = new Map<number, number[]>();
+  all = 0;
+  fOrigin = new Int32Array(0);
+  fTwin = new Int32Array(0);
+  fFace = new Int32Array(0);
+  fNext = new Int32Array(0);
+
+  constructor(tri: Triangulation, region: ConvexRegion) {
+    this.tri = tri;
+    this.region = region;
+    this.sites = tri.siteXY;
+    this.n = tri.siteCount;
+    this.sideEvents = Array.from({ length: region.count }, () => []);
+    this.nearLimit = 4 * (region.radius + 1);
+  }
+
+  private allocate(total: number): void {
+    this.total = total;
+    this.origin = new Int32Array(total);
+    this.twin = new Int32Array(total);
+    this.face = new Int32Array(total);
+    this.next = new Int32Array(total).fill(-1);
+  }
+
+  /** A new point where an edge s→e is cut by side j, at parameter t. */
+  private crossing(sx: number, sy: number, ex: number, ey: number, t: number, j: number): number {
+    const id = this.points.add(sx + t * (ex - sx), sy + t * (ey - sy));
+    this.sideEvents[j].push(id);
+    return id;
+  }
+
+  private isNear(id: number): boolean {
+    const P = this.points.xy, r = this.region;
+    return id >= 0 && Math.hypot(P[2 * id] - r.cx, P[2 * id + 1] - r.cy) <= this.nearLimit;
+  }
+
+  /**
+   * Clips the Voronoi edge between sites a and b that runs from point A to
+   * point B along u, the left normal of a→b (a is on its left); A = -1 or
+   * B = -1 stands for infinity that way. Circumcentres of near-flat
+   * triangles can be astronomically far, and a segment to them cannot be
+   * clipped in floating point; such ends are replaced by points on the
+   * bisector just beyond the region's disk, which changes nothing inside.
+   * Sets clipStart / clipEnd (point ids, new crossings where cut); false
+   * when nothing of positive length is left.
+   */
+  private clipBisector(a: number, b: number, A: number, B: number): boolean {
+    const P = this.points.xy, sites = this.sites, region = this.region;
+    const ax = sites[2 * a], ay = sites[2 * a + 1], bx = sites[2 * b], by = sites[2 * b + 1];
+    const mx = ax + (bx - ax) / 2, my = ay + (by - ay) / 2;
+    const len = Math.hypot(bx - ax, by - ay), ux = -(by - ay) / len, uy = (bx - ax) / len;
+    const nearA = this.isNear(A), nearB = this.isNear(B);
+    let sx: number, sy: number, ex: number, ey: number;
+    if (nearA && nearB) {
+      sx = P[2 * A]; sy = P[2 * A + 1]; ex = P[2 * B]; ey = P[2 * B + 1];
+    } else {
+      const sC = (region.cx - mx) * ux + (region.cy - my) * uy;
+      const lo = sC - region.radius - 1, hi = sC + region.radius + 1;
+      const sA = A < 0 ? -Infinity : (P[2 * A] - mx) * ux + (P[2 * A + 1] - my) * uy;
+      const sB = B < 0 ? Infinity : (P[2 * B] - mx) * ux + (P[2 * B + 1] - my) * uy;
+      if (sB < lo || sA > hi) return false;
+      const pS = nearA ? sA : Math.min(lo, sB) - 1;
+      const pE = nearB ? sB : Math.max(hi, sA) + 1;
+      sx = nearA ? P[2 * A] : mx + pS * ux; sy = nearA ? P[2 * A + 1] : my + pS * uy;
+      ex = nearB ? P[2 * B] : mx + pE * ux; ey = nearB ? P[2 * B + 1] : my + pE * uy;
+    }
+    if (!region.clipSegment(sx, sy, ex, ey)) return false;
+    const { tIn, tOut, sideIn, sideOut } = region;
+    this.clipStart = sideIn < 0 ? A : this.crossing(sx, sy, ex, ey, tIn, sideIn);
+    this.clipEnd = sideOut < 0 ? B : this.crossing(sx, sy, ex, ey, tOut, sideOut);
+    return true;
+  }
+
+  buildEdges(): void {
+    const layout = this.tri.implicitLayout();
+    if (!layout) { this.buildLines(); return; }
+    const { vert, twin: tw, real: T } = layout;
+    this.allocate(3 * T + layout.count - T);
+    const vertexOf = this.mergeCocircular(vert, tw, T);
+    this.placeVertices(vert, T, vertexOf);
+    this.classifyVertices();
+    this.clipEdges(vert, tw, T, vertexOf);
+    this.linkInterior(tw, T, vertexOf);
+  }
+
+  /** Union–find over triangles whose circumcircles coincide; returns each triangle's representative. */
+  private mergeCocircular(vert: Int32Array, tw: Int32Array, T: number): Int32Array {
+    const sites = this.sites;
+    const parent = new Int32Array(T);
+    for (let t = 0; t < T; t++) parent[t] = t;
+    for (let x = 0; x < 3 * T; x++) {
+      const y = tw[x];
+      if (y >= 3 * T || y < x) continue;
+      const a = vert[x], b = vert[nextOf(x)], p = vert[prevOf(x)], d = vert[prevOf(y)];
+      if (incircle(sites[2 * a], sites[2 * a + 1], sites[2 * b], sites[2 * b + 1],
+        sites[2 * p], sites[2 * p + 1], sites[2 * d], sites[2 * d + 1]) !== 0) continue;
+      let ra = (x / 3) | 0, rb = (y / 3) | 0;
+      while (parent[ra] !== ra) ra = parent[ra] = parent[parent[ra]];
+      while (parent[rb] !== rb) rb = parent[rb] = parent[parent[rb]];
+      if (ra !== rb) parent[Math.max(ra, rb)] = Math.min(ra, rb);
+    }
+    for (let t = 0; t < T; t++) parent[t] = parent[parent[t]];
+    return parent;
+  }
+
+  /** One vertex per class, at the circumcentre of its first triangle; rewrites `rep` to vertex numbers. */
+  private placeVertices(vert: Int32Array, T: number, rep: Int32Array): void {
+    const sites = this.sites, points = this.points;
+    points.reserve(T);
+    for (let t = 0; t < T; t++) {
+      if (rep[t] !== t) { rep[t] = rep[rep[t]]; continue; }
+      // Relative to the first corner, for precision far from the origin; the exact orientation of the
+      // true corners gives the sign, which rounded differences could flip for a near-flat triangle.
+      const a = vert[3 * t], b = vert[3 * t + 1], c = vert[3 * t + 2];
+      const ax = sites[2 * a], ay = sites[2 * a + 1];
+      const bx = sites[2 * b] - ax, by = sites[2 * b + 1] - ay;
+      const cx = sites[2 * c] - ax, cy = sites[2 * c + 1] - ay;
+      const d = -2 * orient2d(ax, ay, sites[2 * b], sites[2 * b + 1], sites[2 * c], sites[2 * c + 1]);
+      const bl = bx * bx + by * by, cl = cx * cx + cy * cy;
+      rep[t] = points.add(ax + (cy * bl - by * cl) / d, ay + (bx * cl - cx * bl) / d);
+    }
+    this.vertexCount = points.count;
+  }
+
+  private classifyVertices(): void {
+    const region = this.region, P = this.points.xy, m = region.count;
+    const inside = (this.inside = new Uint8Array(this.vertexCount));
+    for (let v = 0; v < this.vertexCount; v++) {
+      const x = P[2 * v], y = P[2 * v + 1];
+      let state = 1;
+      for (let j = 0; j < m; j++) {
+        const f = region.side(j, x, y);
+        if (f < 0) { state = 0; break; }
+        if (f === 0) state = 2;
+      }
+      inside[v] = state;
+      if (state === 2) for (let j = 0; j < m; j++) if (region.side(j, x, y) === 0) this.sideEvents[j].push(v);
+    }
+  }
+
+  private clipEdges(vert: Int32Array, tw: Int32Array, T: number, vertexOf: Int32Array): void {
+    const { origin, twin, face, inside } = this;
+    for (let x = 0; x < 3 * T; x++) {
+      face[x] = vert[x];
+      const y = tw[x];
+      if (y < 3 * T) {
+        twin[x] = y;
+        if (y < x) continue;
+        const vx = vertexOf[(x / 3) | 0], vy = vertexOf[(y / 3) | 0];
+        if (vx === vy) { origin[x] = origin[y] = -1; continue; }
+        // Both ends inside and not both on the boundary (the edge could lie along it): kept whole.
+        const ix = inside[vx], iy = inside[vy];
+        if (ix !== 0 && iy !== 0 && (ix & iy) !== 2) { origin[x] = vy; origin[y] = vx; continue; }
+        if (!this.clipBisector(vert[x], vert[nextOf(x)], vy, vx)) { origin[x] = origin[y] = -1; continue; }
+        origin[x] = this.clipStart;
+        origin[y] = this.clipEnd;
+      } else {
+        // A hull edge a→b: its Voronoi edge is a ray from the circumcentre, outwards (right of a→b).
+        const g = 3 * T + ((y / 3) | 0) - T;
+        twin[x] = g; twin[g] = x;
+        face[g] = vert[nextOf(x)];
+        if (!this.clipBisector(vert[x], vert[nextOf(x)], -1, vertexOf[(x / 3) | 0])) { origin[x] = origin[g] = -1; continue; }
+        origin[x] = this.clipStart;
+        origin[g] = this.clipEnd;
+      }
+    }
+  }
+
+  /** Next around a vertex strictly inside the region, by rotation about the cell's site. */
+  private linkInterior(tw: Int32Array, T: number, vertexOf: Int32Array): void {
+    const { origin, twin, next, inside } = this;
+    for (let x = 0; x < 3 * T; x++) {
+      if (origin[x] < 0) continue;
+      const end = vertexOf[(x / 3) | 0];
+      if (origin[twin[x]] !== end || inside[end] !== 1) continue;
+      let z = tw[prevOf(x)];
+      for (;;) {
+        const c = z < 3 * T ? z : 3 * T + ((z / 3) | 0) - T;
+        if (origin[c] >= 0) { next[x] = c; break; }
+        z = tw[prevOf(z)];
+      }
+    }
+  }
+
+  /** Collinear sites (or one): parallel bisector lines between neighbours along the line. */
+  private buildLines(): void {
+    const path = this.tri.linearOrder()!;
+    const lines = Math.max(0, path.length - 1);
+    this.allocate(2 * lines);
+    const { origin, twin, face } = this;
+    for (let i = 0; i < lines; i++) {
+      const a = path[i], b = path[i + 1];
+      twin[2 * i] = 2 * i + 1; twin[2 * i + 1] = 2 * i;
+      face[2 * i] = a; face[2 * i + 1] = b;
+      if (!this.clipBisector(a, b, -1, -1)) { origin[2 * i] = origin[2 * i + 1] = -1; continue; }
+      origin[2 * i] = this.clipStart;
+      origin[2 * i + 1] = this.clipEnd;
+    }
+  }
+
+  /** The boundary ring: corners and every point where the diagram meets the boundary, merged within tolerance. */
+  buildRing(): void {
+    const region = this.region, points = this.points, m = region.count;
+    const cornerBase = (this.cornerBase = points.count);
+    for (let j = 0; j < m; j++) points.add(region.xy[2 * j], region.xy[2 * j + 1]);
+    const remap = (this.remap = new Int32Array(points.count));
+    for (let i = 0; i < remap.length; i++) remap[i] = i;
+    const tol = MERGE_TOLERANCE * region.size;
+    // A point at the very end of a side belongs to the next side's start corner.
+    const perSide: { id: number; at: number }[][] = Array.from({ length: m }, () => []);
+    for (let j = 0; j < m; j++) {
+      perSide[j].push({ id: cornerBase + j, at: 0 });
+      const len = region.sideLength(j);
+      for (const id of this.sideEvents[j]) {
+        const at = region.along(j, points.xy[2 * id], points.xy[2 * id + 1]) * len;
+        if (at >= len - tol) perSide[(j + 1) % m].push({ id, at: 0 });
+        else perSide[j].push({ id, at: Math.max(at, 0) });
+      }
+    }
+    // Within a cluster the representative is a corner if there is one, else a Voronoi vertex.
+    const rank = (id: number): number => (id >= cornerBase ? 0 : id < this.vertexCount ? 1 : 2);
+    const ring: number[] = [];
+    for (let j = 0; j < m; j++) {
+      const list = perSide[j].sort((p, q) => p.at - q.at || rank(p.id) - rank(q.id) || p.id - q.id);
+      let keep = list[0];
+      for (let k = 0; k < list.length; k++) {
+        const e = list[k];
+        if (k > 0 && e.at - keep.at > tol) keep = e;
+        if (remap[e.id] === e.id || rank(keep.id) < rank(remap[e.id])) remap[e.id] = remap[keep.id];
+        ring.push(keep.id);
+      }
+    }
+    for (let i = 0; i < remap.length; i++) {
+      let r = remap[i];
+      while (remap[r] !== r) r = remap[r];
+      remap[i] = r;
+    }
+    let kept = 0;
+    for (let i = 0; i < ring.length; i++) {
+      const id = remap[ring[i]];
+      if (kept === 0 || ring[kept - 1] !== id) ring[kept++] = id;
+    }
+    ring.length = kept;
+    while (ring.length > 1 && ring[0] === ring[ring.length - 1]) ring.pop();
+    this.ring = ring;
+    const origin = this.origin, twin = this.twin;
+    for (let x = 0; x < this.total; x++) if (origin[x] >= 0) origin[x] = remap[origin[x]];
+    // Merging may leave an edge with both ends at one point: drop it.
+    for (let x = 0; x < this.total; x++) {
+      if (origin[x] >= 0 && origin[x] === origin[twin[x]]) { origin[twin[x]] = -1; origin[x] = -1; }
+    }
+  }
+
+  /** Each stretch of boundary belongs to the cell on the left of the edge arriving at its start. */
+  assignOwners(): void {
+    const { ring, origin, twin, face } = this, P = this.points.xy;
+    const isEvent = new Uint8Array(this.points.count);
+    for (const id of ring) isEvent[id] = 1;
+    const arriving = new Map<number, number[]>();
+    for (let x = 0; x < this.total; x++) {
+      if (origin[x] < 0) continue;
+      if (isEvent[origin[x]]) listAt(this.outgoing, origin[x]).push(x);
+      const end = origin[twin[x]];
+      if (isEvent[end]) listAt(arriving, end).push(x);
+    }
+    const R = ring.length;
+    const owner = (this.owner = new Int32Array(R).fill(-1));
+    for (let i = 0; i < R; i++) {
+      const here = ring[i], ahead = ring[(i + 1) % R];
+      const list = arriving.get(here);
+      if (!list) continue;
+      // Several edges arrive at one point: the first counter-clockwise from the boundary's way on bounds the piece.
+      const dx = P[2 * ahead] - P[2 * here], dy = P[2 * ahead + 1] - P[2 * here + 1];
+      let best = -1, bestAngle = Infinity;
+      for (const x of list) {
+        const s = origin[x];
+        const ux = P[2 * s] - P[2 * here], uy = P[2 * s + 1] - P[2 * here + 1];
+        let angle = Math.atan2(dx * uy - dy * ux, dx * ux + dy * uy);
+        if (angle <= 0) angle += 2 * Math.PI;
+        if (angle < bestAngle) { bestAngle = angle; best = x; }
+      }
+      owner[i] = face[best];
+    }
+    let start = owner.findIndex((o) => o >= 0);
+    if (start < 0) {
+      // No edge reaches the boundary: one cell covers the whole region.
+      owner[0] = nearestSiteBrute(this.sites, this.n, P[2 * ring[0]], P[2 * ring[0] + 1]);
+      start = 0;
+    }
+    for (let k = 1; k < R; k++) {
+      const i = (start + k) % R;
+      if (owner[i] < 0) owner[i] = owner[(i + R - 1) % R];
+    }
+  }
+
+  /** Boundary half-edges: inner total+2i (ring[i] → ring[i+1], owned), outer total+2i+1 (back, outer face). */
+  linkBoundary(): void {
+    const { ring, owner, total } = this;
+    const R = ring.length, all = (this.all = total + 2 * R);
+    const fOrigin = (this.fOrigin = new Int32Array(all)), fTwin = (this.fTwin = new Int32Array(all));
+    const fFace = (this.fFace = new Int32Array(all)), fNext = (this.fNext = new Int32Array(all).fill(-1));
+    fOrigin.set(this.origin); fTwin.set(this.twin); fFace.set(this.face); fNext.set(this.next);
+    for (let i = 0; i < R; i++) {
+      const inner = total + 2 * i, outer = inner + 1;
+      fOrigin[inner] = ring[i];
+      fOrigin[outer] = ring[(i + 1) % R];
+      fTwin[inner] = outer; fTwin[outer] = inner;
+      fFace[inner] = owner[i];
+      fFace[outer] = OUTER;
+      fNext[outer] = total + 2 * ((i + R - 1) % R) + 1;
+      listAt(this.outgoing, ring[i]).push(inner);
+    }
+    // Everything not linked by rotation ends on the boundary: take the one way on with the same face.
+    for (let x = 0; x < all; x++) {
+      if (fOrigin[x] < 0 || fNext[x] >= 0) continue;
+      const list = this.outgoing.get(fOrigin[fTwin[x]]);
+      if (list) for (const y of list) if (fFace[y] === fFace[x]) { fNext[x] = y; break; }
+      if (fNext[x] < 0) throw new Error(`ambit: internal error, no successor for half-edge ${x} of cell ${fFace[x]}`);
+    }
+  }
+
+  /** Keeps the half-edges and points in use; faces in site order, the outer face last. */
+  compact(): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
+    const { all, fOrigin, fTwin, fNext, fFace, n } = this, P = this.points.xy, pointCount = this.points.count;
+    const newEdge = new Int32Array(all);
+    let E = 0;
+    for (let x = 0; x < all; x++) newEdge[x] = fOrigin[x] >= 0 ? E++ : -1;
+    const newPoint = new Int32Array(pointCount).fill(-1);
+    for (let x = 0; x < all; x++) if (fOrigin[x] >= 0) newPoint[fOrigin[x]] = 0;
+    let V = 0;
+    for (let p = 0; p < pointCount; p++) if (newPoint[p] === 0) newPoint[p] = V++;
+    const vertexXY = new Float64Array(2 * V);
+    for (let p = 0; p < pointCount; p++) {
+      const q = newPoint[p];
+      if (q >= 0) { vertexXY[2 * q] = P[2 * p]; vertexXY[2 * q + 1] = P[2 * p + 1]; }
+    }
+    const faceOfSite = new Int32Array(n).fill(-1);
+    for (let x = 0; x < all; x++) if (fOrigin[x] >= 0 && fFace[x] >= 0) faceOfSite[fFace[x]] = 0;
+    let F = 0;
+    for (let s = 0; s < n; s++) if (faceOfSite[s] === 0) faceOfSite[s] = F++;
+    const outerFace = F;
+    const origin = new Int32Array(E), twin = new Int32Array(E), next = new Int32Array(E), face = new Int32Array(E);
+    const faceEdge = new Int32Array(F + 1).fill(-1), faceSite = new Int32Array(F + 1).fill(-1);
+    for (let s = 0; s < n; s++) if (faceOfSite[s] >= 0) faceSite[faceOfSite[s]] = s;
+    for (let x = 0; x < all; x++) {
+      const e = newEdge[x];
+      if (e < 0) continue;
+      origin[e] = newPoint[fOrigin[x]];
+      twin[e] = newEdge[fTwin[x]];
+      next[e] = newEdge[fNext[x]];
+      const f = fFace[x] === OUTER ? outerFace : faceOfSite[fFace[x]];
+      face[e] = f;
+      if (faceEdge[f] < 0) faceEdge[f] = e;
+    }
+    const mesh = new HalfEdgeMesh({ kind: 'voronoi', vertexXY, origin, twin, next, face, faceEdge, faceSite, outerFace });
+    return { mesh, faceOfSite };
+  }
+}
+
+function listAt(map: Map<number, number[]>, id: number): number[] {
+  let l = map.get(id);
+  if (!l) { l = []; map.set(id, l); }
+  return l;
+}
+
+/** The site nearest to (x, y) by brute force; ties to the smallest index. Used once, when one cell covers the region. */
+function nearestSiteBrute(sites: Float64Array, n: number, x: number, y: number): number {
+  let best = 0, bestD = Infinity;
+  for (let s = 0; s < n; s++) {
+    const d = (sites[2 * s] - x) ** 2 + (sites[2 * s + 1] - y) ** 2;
+    if (d < bestD) { bestD = d; best = s; }
+  }
+  return best;
+}
