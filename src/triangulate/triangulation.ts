@@ -165,13 +165,23 @@ export class Triangulation {
       return;
     }
     this.dimension = 2;
-    const store = new TriangleStore(xy, 2 * n - 2);
-    // orient2d < 0 is counter-clockwise (y-up).
-    if (turn < 0) store.init(a, b, ord[k]);
-    else store.init(b, a, ord[k]);
-    for (let i = 2; i < n; i++) {
-      if (i !== k) store.insert(ord[i]);
+    // Build on a copy of the sites in insertion order, numbered by rank, so that the coordinates each
+    // step reads sit together in memory; the ranks become site numbers again at the end.
+    const local = new Float64Array(2 * n);
+    for (let i = 0; i < n; i++) {
+      local[2 * i] = xy[2 * ord[i]];
+      local[2 * i + 1] = xy[2 * ord[i] + 1];
     }
+    const store = new TriangleStore(local, 2 * n - 2);
+    // orient2d < 0 is counter-clockwise (y-up).
+    if (turn < 0) store.init(0, 1, k);
+    else store.init(1, 0, k);
+    for (let i = 2; i < n; i++) {
+      if (i !== k) store.insert(i);
+    }
+    const vert = store.vert;
+    for (let e = 0; e < 3 * store.count; e++) if (vert[e] >= 0) vert[e] = ord[vert[e]];
+    store.xy = xy;
     this.store = store;
     this.compact();
   }
