@@ -156,6 +156,7 @@ class DiagramBuilder {
     this.allocate(3 * T + layout.count - T);
     const vertexOf = this.mergeCocircular(vert, tw, T);
     this.placeVertices(vert, T, vertexOf);
+    this.mergeCoincident(tw, T, vertexOf);
     this.classifyVertices();
     this.clipEdges(vert, tw, T, vertexOf);
     this.linkInterior(tw, T, vertexOf);
@@ -198,6 +199,34 @@ class DiagramBuilder {
       rep[t] = points.add(ax + (cy * bl - by * cl) / d, ay + (bx * cl - cx * bl) / d);
     }
     this.vertexCount = points.count;
+  }
+
+  /**
+   * Circumcentres of nearly cocircular triangles can round to the very same
+   * point; the edge between them would have length zero, so their vertices
+   * are merged as exactly cocircular ones are. `vertexOf` is rewritten.
+   */
+  private mergeCoincident(tw: Int32Array, T: number, vertexOf: Int32Array): void {
+    const P = this.points.xy;
+    let parent: Int32Array | null = null;
+    const find = (v: number): number => {
+      while (parent![v] !== v) v = parent![v] = parent![parent![v]];
+      return v;
+    };
+    for (let x = 0; x < 3 * T; x++) {
+      const y = tw[x];
+      if (y >= 3 * T || y < x) continue;
+      const u = vertexOf[(x / 3) | 0], v = vertexOf[(y / 3) | 0];
+      if (u === v || P[2 * u] !== P[2 * v] || P[2 * u + 1] !== P[2 * v + 1]) continue;
+      if (!parent) {
+        parent = new Int32Array(this.vertexCount);
+        for (let i = 0; i < parent.length; i++) parent[i] = i;
+      }
+      const ru = find(u), rv = find(v);
+      if (ru !== rv) parent[Math.max(ru, rv)] = Math.min(ru, rv);
+    }
+    if (!parent) return;
+    for (let t = 0; t < T; t++) vertexOf[t] = find(vertexOf[t]);
   }
 
   private classifyVertices(): void {
@@ -361,8 +390,8 @@ class DiagramBuilder {
     }
     let start = owner.findIndex((o) => o >= 0);
     if (start < 0) {
-      // No edge reaches the boundary: one cell covers the whole region.
-      owner[0] = nearestSiteBrute(this.sites, this.n, P[2 * ring[0]], P[2 * ring[0] + 1]);
+      // No edge reaches into the region: one cell covers it all, the cell of any interior point.
+      owner[0] = nearestSiteBrute(this.sites, this.n, this.region.cx, this.region.cy);
       start = 0;
     }
     for (let k = 1; k < R; k++) {

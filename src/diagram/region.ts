@@ -37,6 +37,9 @@ const CROSSING_SEARCH_LIMIT = 2000;
 export function readClipRegion(region: ClipRegion): Float64Array {
   if (isRect(region)) {
     const { minX, minY, maxX, maxY } = region;
+    for (const [name, v] of [['minX', minX], ['minY', minY], ['maxX', maxX], ['maxY', maxY]] as const) {
+      if (typeof v !== 'number' || !Number.isFinite(v)) throw clipError(typeof v === 'number' ? 'not-finite' : 'not-a-number', `${name} is ${v}; rectangle bounds must be finite numbers`);
+    }
     const poly = readPoints([minX, minY, maxX, minY, maxX, maxY, minX, maxY]);
     if (!(minX < maxX) || !(minY < maxY)) {
       throw clipError('clip-degenerate', `rectangle [${minX}, ${maxX}] × [${minY}, ${maxY}] is empty; need minX < maxX and minY < maxY`);
@@ -60,6 +63,9 @@ export function readClipRegion(region: ClipRegion): Float64Array {
       throw clipError('clip-repeated', `vertex ${j} repeats vertex ${i}`, j);
     }
   }
+  let turns = false;
+  for (let i = 2; i < m && !turns; i++) turns = orient(pts[0], pts[1], pts[2], pts[3], pts[2 * i], pts[2 * i + 1]) !== 0;
+  if (!turns) throw clipError('clip-degenerate', 'all vertices lie on one line; the polygon has no area');
   let left = 0, right = 0, firstLeft = -1, firstRight = -1;
   let turning = 0;
   for (let i = 0; i < m; i++) {
@@ -72,7 +78,6 @@ export function readClipRegion(region: ClipRegion): Float64Array {
     if (o < 0) { right++; if (firstRight < 0) firstRight = i; }
     turning += Math.atan2(ux * vy - uy * vx, ux * vx + uy * vy);
   }
-  if (left === 0 && right === 0) throw clipError('clip-degenerate', 'all vertices lie on one line; the polygon has no area');
   if (left > 0 && right > 0) {
     if (m <= CROSSING_SEARCH_LIMIT) {
       for (let i = 0; i < m; i++) {
