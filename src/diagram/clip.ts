@@ -1,3 +1,6 @@
+/** How many units in the last place of the region's coordinates count as "on" a side. */
+export const SNAP_ULPS = 16;
+
 /**
  * A convex clip polygon, counter-clockwise, with the side functions every
  * clipping decision uses. Each decision about a point is made from the
@@ -31,13 +34,27 @@ export class ConvexRegion {
     for (let i = 0; i < m; i++) r = Math.max(r, Math.hypot(xy[2 * i] - this.cx, xy[2 * i + 1] - this.cy));
     this.radius = r;
     this.size = Math.max(maxX - minX, maxY - minY);
+    let magnitude = this.size;
+    for (let i = 0; i < 2 * m; i++) magnitude = Math.max(magnitude, Math.abs(xy[i]));
+    this.snap = new Float64Array(m);
+    for (let j = 0; j < m; j++) this.snap[j] = SNAP_ULPS * Number.EPSILON * magnitude * this.sideLength(j);
   }
 
-  /** Positive left of side j (inside), zero on its line: cross(side direction, p − side start). */
+  /** Per side: |side value| up to which a point counts as on the side's line. */
+  private readonly snap: Float64Array;
+
+  /**
+   * Positive left of side j (inside), zero on its line: cross(side direction,
+   * p − side start). Points closer to the line than rounding can tell (a
+   * few units in the last place of the region's coordinates) count as on it,
+   * so that a Voronoi vertex computed a hair off the boundary is treated as
+   * on it, the same way by every decision.
+   */
   side(j: number, x: number, y: number): number {
     const xy = this.xy, k = j + 1 === this.count ? 0 : j + 1;
     const ax = xy[2 * j], ay = xy[2 * j + 1];
-    return (xy[2 * k] - ax) * (y - ay) - (xy[2 * k + 1] - ay) * (x - ax);
+    const f = (xy[2 * k] - ax) * (y - ay) - (xy[2 * k + 1] - ay) * (x - ax);
+    return Math.abs(f) <= this.snap[j] ? 0 : f;
   }
 
   /** Where p lies along side j: 0 at its start, 1 at its end. */

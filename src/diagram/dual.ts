@@ -1,13 +1,11 @@
 import { incircle, orient2d } from 'robust-predicates';
 import { HalfEdgeMesh } from '../mesh/mesh.js';
 import type { Triangulation } from '../triangulate/triangulation.js';
-import { ConvexRegion } from './clip.js';
+import { ConvexRegion, SNAP_ULPS } from './clip.js';
 
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
 
-/** Boundary points closer than this (times the region size) along a side are one point. */
-const MERGE_TOLERANCE = 1e-12;
 /** Face number of the outer face while building. */
 const OUTER = -2;
 
@@ -129,7 +127,15 @@ class DiagramBuilder {
     const len = Math.hypot(bx - ax, by - ay), ux = -(by - ay) / len, uy = (bx - ax) / len;
     const nearA = this.isNear(A), nearB = this.isNear(B);
     let sx: number, sy: number, ex: number, ey: number;
-    if (nearA && nearB) {
+    const inA = A >= 0 && this.inside[A] !== 0, inB = B >= 0 && this.inside[B] !== 0;
+    if (inA !== inB) {
+      // One end inside: leave it along the bisector's own direction, known from the sites, to a point
+      // surely outside; the other centre may be ill-conditioned (a near-flat triangle) and pull the cut aside.
+      const K = inA ? A : B, kx = P[2 * K], ky = P[2 * K + 1];
+      const reach = 2 * (Math.hypot(kx - region.cx, ky - region.cy) + region.radius) + 1;
+      if (inA) { sx = kx; sy = ky; ex = kx + reach * ux; ey = ky + reach * uy; }
+      else { sx = kx - reach * ux; sy = ky - reach * uy; ex = kx; ey = ky; }
+    } else if (nearA && nearB) {
       sx = P[2 * A]; sy = P[2 * A + 1]; ex = P[2 * B]; ey = P[2 * B + 1];
     } else {
       const sC = (region.cx - mx) * ux + (region.cy - my) * uy;
@@ -310,22 +316,25 @@ class DiagramBuilder {
     const region = this.region, points = this.points, m = region.count;
     const cornerBase = (this.cornerBase = points.count);
     for (let j = 0; j < m; j++) points.add(region.xy[2 * j], region.xy[2 * j + 1]);
+    const P = points.xy;
     const remap = (this.remap = new Int32Array(points.count));
     for (let i = 0; i < remap.length; i++) remap[i] = i;
-    const tol = MERGE_TOLERANCE * region.size;
-    // A point at the very end of a side belongs to the next side's start corner.
+    // Points closer along a side than rounding can tell apart are one point (a crossing computed
+    // next to a corner it really passes through, say); a corner if one is there, else a Voronoi vertex.
+    let magnitude = region.size;
+    for (let i = 0; i < 2 * m; i++) magnitude = Math.max(magnitude, Math.abs(region.xy[i]));
+    const tol = SNAP_ULPS * Number.EPSILON * magnitude;
+    const rank = (id: number): number => (id >= cornerBase ? 0 : id < this.vertexCount ? 1 : 2);
     const perSide: { id: number; at: number }[][] = Array.from({ length: m }, () => []);
     for (let j = 0; j < m; j++) {
       perSide[j].push({ id: cornerBase + j, at: 0 });
       const len = region.sideLength(j);
       for (const id of this.sideEvents[j]) {
-        const at = region.along(j, points.xy[2 * id], points.xy[2 * id + 1]) * len;
+        const at = Math.max(region.along(j, P[2 * id], P[2 * id + 1]) * len, 0);
         if (at >= len - tol) perSide[(j + 1) % m].push({ id, at: 0 });
-        else perSide[j].push({ id, at: Math.max(at, 0) });
+        else perSide[j].push({ id, at });
       }
     }
-    // Within a cluster the representative is a corner if there is one, else a Voronoi vertex.
-    const rank = (id: number): number => (id >= cornerBase ? 0 : id < this.vertexCount ? 1 : 2);
     const ring: number[] = [];
     for (let j = 0; j < m; j++) {
       const list = perSide[j].sort((p, q) => p.at - q.at || rank(p.id) - rank(q.id) || p.id - q.id);
@@ -352,9 +361,17 @@ class DiagramBuilder {
     this.ring = ring;
     const origin = this.origin, twin = this.twin;
     for (let x = 0; x < this.total; x++) if (origin[x] >= 0) origin[x] = remap[origin[x]];
-    // Merging may leave an edge with both ends at one point: drop it.
+    // Merging may leave an edge with both ends at one point, or joining two neighbours on the ring,
+    // which puts it along the boundary with a cell of zero width beside it: drop those.
+    const at = new Int32Array(this.points.count).fill(-1);
+    ring.forEach((id, i) => { at[id] = i; });
+    const R = ring.length;
     for (let x = 0; x < this.total; x++) {
-      if (origin[x] >= 0 && origin[x] === origin[twin[x]]) { origin[twin[x]] = -1; origin[x] = -1; }
+      const p = origin[x];
+      if (p < 0) continue;
+      const q = origin[twin[x]];
+      const gap = at[p] >= 0 && at[q] >= 0 ? (at[q] - at[p] + R) % R : 0;
+      if (p === q || gap === 1 || gap === R - 1) { origin[twin[x]] = -1; origin[x] = -1; }
     }
   }
 

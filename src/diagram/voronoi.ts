@@ -1,4 +1,5 @@
 import { InputError } from '../core/errors.js';
+import { orient } from '../core/predicates.js';
 import type { PointInput } from '../core/input.js';
 import { HalfEdgeMesh } from '../mesh/mesh.js';
 import { SiteLocator } from '../query/site-locator.js';
@@ -70,13 +71,15 @@ export class VoronoiDiagram {
 
   private measure(): { area: Float64Array; centroid: Float64Array; perimeter: Float64Array } {
     if (this.measured) return this.measured;
-    const n = this.triangulation.siteCount, m = this.mesh, xy = m.vertexXY, sites = this.triangulation.siteXY;
+    const n = this.triangulation.siteCount, m = this.mesh, xy = m.vertexXY;
     const area = new Float64Array(n), centroid = new Float64Array(2 * n).fill(NaN), perimeter = new Float64Array(n);
     for (let s = 0; s < n; s++) {
       const f = this.faceOfSite[s];
       if (f < 0) continue;
-      // Relative to the site: coordinates far from the origin keep their precision.
-      const ox = sites[2 * s], oy = sites[2 * s + 1];
+      // Relative to the cell's first vertex: coordinates far from the origin keep their precision, and
+      // a thin cell far from its site does not cancel itself away.
+      const v0 = m.origin[m.faceEdge[f]];
+      const ox = xy[2 * v0], oy = xy[2 * v0 + 1];
       let a2 = 0, cx = 0, cy = 0, per = 0;
       const start = m.faceEdge[f];
       let e = start;
@@ -94,9 +97,27 @@ export class VoronoiDiagram {
       centroid[2 * s] = ox + cx / (3 * a2);
       centroid[2 * s + 1] = oy + cy / (3 * a2);
       perimeter[s] = per;
+      if (!(Math.abs(a2) > 0) || !this.insideBox(f, centroid[2 * s], centroid[2 * s + 1])) {
+        // A cell too thin for the area formula to divide by: its vertex mean is as good a centre.
+        const vs = m.faceVertices(f);
+        let mx = 0, my = 0;
+        for (const v of vs) { mx += xy[2 * v] - ox; my += xy[2 * v + 1] - oy; }
+        centroid[2 * s] = ox + mx / vs.length;
+        centroid[2 * s + 1] = oy + my / vs.length;
+      }
     }
     this.measured = { area, centroid, perimeter };
     return this.measured;
+  }
+
+  private insideBox(f: number, x: number, y: number): boolean {
+    const xy = this.mesh.vertexXY;
+    let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+    for (const v of this.mesh.faceVertices(f)) {
+      minX = Math.min(minX, xy[2 * v]); maxX = Math.max(maxX, xy[2 * v]);
+      minY = Math.min(minY, xy[2 * v + 1]); maxY = Math.max(maxY, xy[2 * v + 1]);
+    }
+    return x >= minX && x <= maxX && y >= minY && y <= maxY;
   }
 
   /** Area of each site's cell (0 without a cell). */
@@ -161,11 +182,17 @@ export class VoronoiDiagram {
   /** The k nearest sites by (distance, site index). */
   kNearest(x: number, y: number, k: number): Int32Array { return this.queries().kNearest(x, y, k); }
 
-  /** The site whose cell contains (x, y): its nearest site inside the region, -1 outside. */
+  /**
+   * The site whose cell contains (x, y): its nearest site when the point is
+   * inside the region or on its boundary (decided exactly), else -1.
+   */
   cellAt(x: number, y: number): number {
     const s = this.nearest(x, y);
-    const region = new ConvexRegion(this.region);
-    for (let j = 0; j < region.count; j++) if (region.side(j, x, y) < 0) return -1;
+    const r = this.region, m = r.length >> 1;
+    for (let j = 0; j < m; j++) {
+      const k = j + 1 === m ? 0 : j + 1;
+      if (orient(r[2 * j], r[2 * j + 1], r[2 * k], r[2 * k + 1], x, y) < 0) return -1;
+    }
     return s;
   }
 }

@@ -33,6 +33,22 @@ pts = np.array(req['points'], dtype=np.float64).reshape(-1, 2)
 d = scipy.spatial.Delaunay(pts)
 reply({'simplices': d.simplices.tolist(), 'coplanar': d.coplanar[:, 0].tolist()})
 `,
+  // scipy.spatial.Voronoi with its default Qhull options: vertices, and per
+  // ridge the two input points it separates and its two vertex indices (-1 =
+  // the ridge runs to infinity).
+  voronoi: `
+pts = np.array(req['points'], dtype=np.float64).reshape(-1, 2)
+v = scipy.spatial.Voronoi(pts)
+reply({'vertices': v.vertices.tolist(), 'ridgePoints': v.ridge_points.tolist(),
+       'ridgeVertices': [list(map(int, r)) for r in v.ridge_vertices]})
+`,
+  // scipy.spatial.cKDTree nearest neighbour (k=1, p=2) of each query: input point indices.
+  kdtreeNearest: `
+pts = np.array(req['points'], dtype=np.float64).reshape(-1, 2)
+q = np.array(req['queries'], dtype=np.float64).reshape(-1, 2)
+_, idx = scipy.spatial.cKDTree(pts).query(q, k=1, p=2)
+reply({'nearest': idx.tolist()})
+`,
 };
 
 export interface PythonResult<T> {
