@@ -18,3 +18,5 @@ export { voronoi, VoronoiDiagram } from './diagram/voronoi.js';
 export type { VoronoiOptions, CellNeighbors } from './diagram/voronoi.js';
 export { readClipRegion } from './diagram/region.js';
 export type { ClipRegion, RectRegion } from './diagram/region.js';
+export { SiteLocator } from './query/site-locator.js';
+export { compareDistance } from './core/distance.js';
