@@ -1,5 +1,5 @@
 /** How many units in the last place of the region's coordinates count as "on" a side. */
-export const SNAP_ULPS = 16;
+export const SNAP_ULPS = 4;
 
 /**
  * A convex clip polygon, counter-clockwise, with the side functions every

@@ -160,49 +160,84 @@ class DiagramBuilder {
     if (!layout) { this.buildLines(); return; }
     const { vert, twin: tw, real: T } = layout;
     this.allocate(3 * T + layout.count - T);
-    const vertexOf = this.mergeCocircular(vert, tw, T);
-    this.placeVertices(vert, T, vertexOf);
+    const centre = this.circumcentres(vert, T);
+    const vertexOf = this.mergeCocircular(vert, tw, T, centre);
+    this.placeVertices(T, vertexOf, centre);
     this.mergeCoincident(tw, T, vertexOf);
     this.classifyVertices();
     this.clipEdges(vert, tw, T, vertexOf);
     this.linkInterior(tw, T, vertexOf);
   }
 
-  /** Union–find over triangles whose circumcircles coincide; returns each triangle's representative. */
-  private mergeCocircular(vert: Int32Array, tw: Int32Array, T: number): Int32Array {
-    const sites = this.sites;
-    const parent = new Int32Array(T);
-    for (let t = 0; t < T; t++) parent[t] = t;
-    for (let x = 0; x < 3 * T; x++) {
-      const y = tw[x];
-      if (y >= 3 * T || y < x) continue;
-      const a = vert[x], b = vert[nextOf(x)], p = vert[prevOf(x)], d = vert[prevOf(y)];
-      if (incircle(sites[2 * a], sites[2 * a + 1], sites[2 * b], sites[2 * b + 1],
-        sites[2 * p], sites[2 * p + 1], sites[2 * d], sites[2 * d + 1]) !== 0) continue;
-      let ra = (x / 3) | 0, rb = (y / 3) | 0;
-      while (parent[ra] !== ra) ra = parent[ra] = parent[parent[ra]];
-      while (parent[rb] !== rb) rb = parent[rb] = parent[parent[rb]];
-      if (ra !== rb) parent[Math.max(ra, rb)] = Math.min(ra, rb);
-    }
-    for (let t = 0; t < T; t++) parent[t] = parent[parent[t]];
-    return parent;
-  }
-
-  /** One vertex per class, at the circumcentre of its first triangle; rewrites `rep` to vertex numbers. */
-  private placeVertices(vert: Int32Array, T: number, rep: Int32Array): void {
-    const sites = this.sites, points = this.points;
-    points.reserve(T);
+  /**
+   * Circumcentre of every triangle, with a bound on its rounding error.
+   * Computed relative to the first corner, for precision far from the origin;
+   * the exact orientation of the true corners gives the sign, which rounded
+   * differences could flip for a near-flat triangle.
+   *
+   * Error bound (first-order, with a safety factor of 4): the corner
+   * differences carry a relative error of ε, their squared lengths 4ε, the
+   * numerator cy·|b|² − by·|c|² then at most 7ε(|cy||b|² + |by||c|²), and
+   * the denominator d (robust-predicates' estimate of twice the orientation)
+   * 4ε(|bx cy| + |by cx|)/|d| relative; adding the corner back rounds once more.
+   */
+  private circumcentres(vert: Int32Array, T: number): Float64Array {
+    const sites = this.sites, eps = Number.EPSILON / 2;
+    const out = new Float64Array(3 * T);
     for (let t = 0; t < T; t++) {
-      if (rep[t] !== t) { rep[t] = rep[rep[t]]; continue; }
-      // Relative to the first corner, for precision far from the origin; the exact orientation of the
-      // true corners gives the sign, which rounded differences could flip for a near-flat triangle.
       const a = vert[3 * t], b = vert[3 * t + 1], c = vert[3 * t + 2];
       const ax = sites[2 * a], ay = sites[2 * a + 1];
       const bx = sites[2 * b] - ax, by = sites[2 * b + 1] - ay;
       const cx = sites[2 * c] - ax, cy = sites[2 * c + 1] - ay;
       const d = -2 * orient2d(ax, ay, sites[2 * b], sites[2 * b + 1], sites[2 * c], sites[2 * c + 1]);
       const bl = bx * bx + by * by, cl = cx * cx + cy * cy;
-      rep[t] = points.add(ax + (cy * bl - by * cl) / d, ay + (bx * cl - cx * bl) / d);
+      const ux = (cy * bl - by * cl) / d, uy = (bx * cl - cx * bl) / d;
+      const X = ax + ux, Y = ay + uy;
+      const ad = Math.abs(d);
+      const rel = (8 * eps * (Math.abs(bx * cy) + Math.abs(by * cx))) / ad;
+      const ex = (7 * eps * (Math.abs(cy) * bl + Math.abs(by) * cl)) / ad + Math.abs(ux) * (rel + 2 * eps) + eps * Math.abs(X);
+      const ey = (7 * eps * (Math.abs(bx) * cl + Math.abs(cx) * bl)) / ad + Math.abs(uy) * (rel + 2 * eps) + eps * Math.abs(Y);
+      out[3 * t] = X;
+      out[3 * t + 1] = Y;
+      out[3 * t + 2] = 4 * Math.max(ex, ey);
+    }
+    return out;
+  }
+
+  /**
+   * Union–find over triangles whose circumcircles coincide (exact incircle,
+   * asked only when the two centres agree within their error bounds);
+   * returns each triangle's representative, the smallest of its class.
+   */
+  private mergeCocircular(vert: Int32Array, tw: Int32Array, T: number, centre: Float64Array): Int32Array {
+    const sites = this.sites;
+    const parent = new Int32Array(T);
+    for (let t = 0; t < T; t++) parent[t] = t;
+    for (let x = 0; x < 3 * T; x++) {
+      const y = tw[x];
+      if (y >= 3 * T || y < x) continue;
+      const t = (x / 3) | 0, u = (y / 3) | 0;
+      const slack = centre[3 * t + 2] + centre[3 * u + 2];
+      if (!(Math.abs(centre[3 * t] - centre[3 * u]) <= slack && Math.abs(centre[3 * t + 1] - centre[3 * u + 1]) <= slack)) continue;
+      const a = vert[x], b = vert[nextOf(x)], p = vert[prevOf(x)], d = vert[prevOf(y)];
+      if (incircle(sites[2 * a], sites[2 * a + 1], sites[2 * b], sites[2 * b + 1],
+        sites[2 * p], sites[2 * p + 1], sites[2 * d], sites[2 * d + 1]) !== 0) continue;
+      let ra = t, rb = u;
+      while (parent[ra] !== ra) ra = parent[ra] = parent[parent[ra]];
+      while (parent[rb] !== rb) rb = parent[rb] = parent[parent[rb]];
+      if (ra !== rb) parent[Math.max(ra, rb)] = Math.min(ra, rb);
+    }
+    return parent;
+  }
+
+  /** One vertex per class, at the circumcentre of its first triangle; rewrites `rep` to vertex numbers. */
+  private placeVertices(T: number, rep: Int32Array, centre: Float64Array): void {
+    const points = this.points;
+    points.reserve(T);
+    // Parents point to smaller triangles, so every parent is renumbered before its children.
+    for (let t = 0; t < T; t++) {
+      if (rep[t] !== t) { rep[t] = rep[rep[t]]; continue; }
+      rep[t] = points.add(centre[3 * t], centre[3 * t + 1]);
     }
     this.vertexCount = points.count;
   }

@@ -44,6 +44,7 @@ export function readClipRegion(region: ClipRegion): Float64Array {
     if (!(minX < maxX) || !(minY < maxY)) {
       throw clipError('clip-degenerate', `rectangle [${minX}, ${maxX}] × [${minY}, ${maxY}] is empty; need minX < maxX and minY < maxY`);
     }
+    checkWidth(poly, 4);
     return poly;
   }
   let pts: Float64Array;
@@ -94,6 +95,7 @@ export function readClipRegion(region: ClipRegion): Float64Array {
   }
   // All turns one way: convex if it winds once, a star polygon if more.
   if (Math.abs(turning) > 3 * Math.PI) throw clipError('clip-self-intersecting', 'the ring winds around more than once');
+  checkWidth(pts, m);
   if (right > 0) {
     const ccw = new Float64Array(2 * m);
     for (let i = 0; i < m; i++) {
@@ -103,6 +105,28 @@ export function readClipRegion(region: ClipRegion): Float64Array {
     return ccw;
   }
   return pts;
+}
+
+/**
+ * A region narrower than this many units in the last place of its
+ * coordinates cannot be clipped to meaningfully in double precision: points
+ * within a few ulps of a side count as on it (see SNAP_ULPS in clip.ts).
+ */
+const MIN_WIDTH_ULPS = 64;
+
+/** Rejects a convex polygon thinner, somewhere, than MIN_WIDTH_ULPS of its coordinates. */
+function checkWidth(pts: Float64Array, m: number): void {
+  let magnitude = 0;
+  for (let i = 0; i < 2 * m; i++) magnitude = Math.max(magnitude, Math.abs(pts[i]));
+  for (let j = 0; j < m; j++) {
+    const k = (j + 1) % m;
+    const ex = pts[2 * k] - pts[2 * j], ey = pts[2 * k + 1] - pts[2 * j + 1], el = Math.hypot(ex, ey);
+    let far = 0;
+    for (let i = 0; i < m; i++) far = Math.max(far, Math.abs(ex * (pts[2 * i + 1] - pts[2 * j + 1]) - ey * (pts[2 * i] - pts[2 * j])) / el);
+    if (far < MIN_WIDTH_ULPS * Number.EPSILON * Math.max(magnitude, far)) {
+      throw clipError('clip-degenerate', `the polygon is only ${far} wide across side ${j}, too thin to clip to in double precision at coordinates of ${magnitude}`, j);
+    }
+  }
 }
 
 /** The default region: the sites' bounding box padded by 10% of its larger side (1 when that side is 0). */

@@ -77,6 +77,20 @@ interface RegionPlan { clip: Clip | undefined; expected: number[]; label: string
  * that they are not collapsed by rounding; the default clip is not touched
  * (tiny default regions are exercised as they come).
  */
+/** The smallest, over the sides, of the largest distance of a vertex from the side's line. */
+function minimumWidth(poly: number[]): number {
+  const m = poly.length >> 1;
+  let width = Infinity;
+  for (let j = 0; j < m; j++) {
+    const k = (j + 1) % m;
+    const ex = poly[2 * k] - poly[2 * j], ey = poly[2 * k + 1] - poly[2 * j + 1], el = Math.hypot(ex, ey);
+    let far = 0;
+    for (let i = 0; i < m; i++) far = Math.max(far, Math.abs(ex * (poly[2 * i + 1] - poly[2 * j + 1]) - ey * (poly[2 * i] - poly[2 * j])) / el);
+    width = Math.min(width, far);
+  }
+  return width;
+}
+
 function planRegion(spec: RegionSpec, siteXY: Float64Array): RegionPlan {
   const b = boundingBox(siteXY);
   const side = Math.max(b.maxX - b.minX, b.maxY - b.minY);
@@ -123,6 +137,10 @@ function planRegion(spec: RegionSpec, siteXY: Float64Array): RegionPlan {
   }
   poly = spaced.length >= 6 ? strictHull(spaced) : [];
   if (poly.length < 6) return rectFallback([0.5, 0.5, 0.5, 0.5]);
+  // Likewise a region thinner than 1e-3 h (a sliver triangle): the library rejects regions only a few
+  // ulps wide (clip-degenerate, tested in tests/unit/clip-region.test.ts), and thin ones are not what
+  // this case is about.
+  if (minimumWidth(poly) < 1e-3 * h) return rectFallback([0.5, 0.5, 0.5, 0.5]);
   const expected = poly.slice();
   const n = poly.length >> 1;
   let pts: [number, number][] = Array.from({ length: n }, (_, i) => [poly[2 * i], poly[2 * i + 1]]);
@@ -347,7 +365,10 @@ function diagramProblems(input: number[], spec: RegionSpec, extra: Extra): strin
     const k = `${a},${b}`;
     ours.set(k, (ours.get(k) ?? 0) + len);
   }
-  const duals = dualEdges(xy, tri.triangleSites, tri.edges(), region);
+  // The library counts points within 4 ulps of the region's coordinates of a side as on it
+  // (src/diagram/clip.ts, SNAP_ULPS), so an edge that close to a side along its length is dropped
+  // with the sliver beside it; 16 ulps here covers that rule and the test's own rounding.
+  const duals = dualEdges(xy, tri.triangleSites, tri.edges(), region, 16 * ulp(M));
   const dualLength = new Map<string, number>();
   const dualSlack = new Map<string, number>();
   for (const de of duals) {
@@ -364,7 +385,7 @@ function diagramProblems(input: number[], spec: RegionSpec, extra: Extra): strin
   const ambiguous = 1e-7 * size + 2 * slack;
   for (const de of duals) {
     const k = `${de.a},${de.b}`;
-    if (de.clipped > ambiguous && !ours.has(k)) out.push(`cells ${k} should share an edge of length ${de.clipped} (Delaunay dual clipped to the region) but do not`);
+    if (de.clipped > ambiguous && !de.alongSide && !ours.has(k)) out.push(`cells ${k} should share an edge of length ${de.clipped} (Delaunay dual clipped to the region) but do not`);
   }
   for (const [k, len] of ours) {
     const want = dualLength.get(k);

@@ -234,6 +234,8 @@ export function bisectorParameter(
 export interface DualEdge {
   a: number;
   b: number;
+  /** The clipped edge runs along a region side, within the tolerance given (see dualEdges). */
+  alongSide: boolean;
   /** Length of the Voronoi edge of a and b inside the region (0 when it misses it). */
   clipped: number;
   /**
@@ -270,6 +272,7 @@ function sineAtSide(region: ArrayLike<number>, x: number, y: number, dx: number,
  */
 export function dualEdges(
   siteXY: ArrayLike<number>, triangleSites: ArrayLike<number>, edges: ArrayLike<number>, region: ArrayLike<number>,
+  sideTolerance = 0,
 ): DualEdge[] {
   const apex = new Map<number, number>();
   const n = siteXY.length >> 1;
@@ -301,7 +304,22 @@ export function dualEdges(
         if (ch !== hi) endSines[1] = sineAtSide(region, mx + ch * dx, my + ch * dy, dx, dy);
       }
     }
-    out.push({ a: Math.min(a, b), b: Math.max(a, b), clipped, endSines });
+    // Both clipped ends within `sideTolerance` of one side's line: the edge runs along the boundary,
+    // where the library counts it as lying on the side (a sliver of no width beside it).
+    let alongSide = false;
+    if (clipped > 0 && sideTolerance > 0) {
+      const [cl, ch] = clipLine(region, mx, my, dx, dy, lo, hi);
+      const p0x = mx + cl * dx, p0y = my + cl * dy, p1x = mx + ch * dx, p1y = my + ch * dy;
+      const m = region.length >> 1;
+      for (let j = 0; j < m && !alongSide; j++) {
+        const k = (j + 1) % m;
+        const sx = region[2 * j], sy = region[2 * j + 1], ex = region[2 * k] - sx, ey = region[2 * k + 1] - sy;
+        const el = Math.hypot(ex, ey);
+        const d0 = Math.abs(ex * (p0y - sy) - ey * (p0x - sx)) / el, d1 = Math.abs(ex * (p1y - sy) - ey * (p1x - sx)) / el;
+        alongSide = d0 <= sideTolerance && d1 <= sideTolerance;
+      }
+    }
+    out.push({ a: Math.min(a, b), b: Math.max(a, b), clipped, endSines, alongSide });
   }
   return out;
 }

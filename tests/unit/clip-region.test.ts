@@ -126,4 +126,15 @@ describe('readClipRegion', () => {
       { numRuns: NUM_RUNS },
     );
   });
+
+  it('rejects a region only a few ulps wide at its coordinates (too thin to clip to)', () => {
+    // At 1e7 one ulp is about 1.9e-9; a triangle 1.5e-8 wide is 8 ulps across.
+    const thin: [number, number][] = [[1e7, 1e7], [1e7 + 1.5e-8, 1e7 + 0.5], [1e7, 1e7 + 1]];
+    const e = clipError(thin);
+    expect(e.code).toBe('clip-degenerate');
+    const rect = clipError({ minX: 1e7, minY: 0, maxX: 1e7 + 4e-9, maxY: 1 });
+    expect(rect.code).toBe('clip-degenerate');
+    // The same shape a thousand times wider is fine.
+    expect(readClipRegion([[1e7, 1e7], [1e7 + 1.5e-5, 1e7 + 0.5], [1e7, 1e7 + 1]]).length).toBe(6);
+  });
 });
