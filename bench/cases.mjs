@@ -1,14 +1,76 @@
 // Benchmark cases. Each entry:
 //   name   - the --case name
-//   run    - (points: Float64Array, interleaved x,y) => result; this is what gets timed,
-//            and the result is what bytesPerPoint measures while it is still referenced
+//   run    - (points: Float64Array, interleaved x,y; input) => result; this is what gets
+//            timed, and the result is what bytesPerPoint measures while it is still referenced
 //   scipy  - name of the matching operation in bench/scipy_ref.py (its OPS table), or
 //            null when scipy does not do the same work
 //   size   - optional (result) => number comparable to the "size" scipy_ref.py reports
 //            (e.g. the triangle count); a mismatch is noted on stderr, never fatal
+// Optional hooks, for cases that need more than the points:
+//   setup(points, seed) => input     made once per row outside the timed region, passed to run
+//   refInput(input) => Float64Array  query points handed to scipy in a second file
+//   retain(result) => part           the part of the result bytesPerPoint counts (default: all)
+//   keep(result, input) => facts     taken from the untimed warm-up result, for compare
+//   compare(facts, ref, points, input) => string | null   a note on stderr after scipy ran
 // Adding a case is one more object here (plus an OPS entry in scipy_ref.py if scipy can
 // do the same work).
-import { triangulate } from '../dist/index.js';
+import { SiteLocator, compareDistance, triangulate, voronoi } from '../dist/index.js';
+import { makeRng } from './distributions.mjs';
+
+/** Number of query points of the `nearest` case, whatever the number of sites. */
+export const NEAREST_QUERIES = 1e6;
+
+/** The exact bounding box of interleaved points. */
+function boundingBox(points) {
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  for (let i = 0; i < points.length; i += 2) {
+    const x = points[i], y = points[i + 1];
+    if (x < minX) minX = x;
+    if (x > maxX) maxX = x;
+    if (y < minY) minY = y;
+    if (y > maxY) maxY = y;
+  }
+  return { minX, minY, maxX, maxY };
+}
+
+/** Query points uniform over the sites' bounding box, seeded apart from the sites themselves. */
+function nearestSetup(points, seed) {
+  const { minX, minY, maxX, maxY } = boundingBox(points);
+  const rng = makeRng(seed + 104729);
+  const queries = new Float64Array(2 * NEAREST_QUERIES);
+  for (let i = 0; i < queries.length; i += 2) {
+    queries[i] = minX + (maxX - minX) * rng.next();
+    queries[i + 1] = minY + (maxY - minY) * rng.next();
+  }
+  return { queries };
+}
+
+/**
+ * Checks the sampled cKDTree answers against ours. scipy answers with input indices,
+ * we with site numbers (duplicates merged), so its answer goes through siteOfInput.
+ * Where the two differ, the exact distance comparison says whether it is a tie
+ * (both right) or which side picked a farther site.
+ */
+function compareNearest(facts, ref, points, input) {
+  if (!facts || !ref || !Array.isArray(ref.sample)) return 'nearest: no answers to compare';
+  const { answers, siteOfInput, siteXY } = facts;
+  const q = input.queries, stride = ref.sampleStride;
+  let same = 0, ties = 0, oursFarther = 0, theirsFarther = 0;
+  for (let k = 0; k < ref.sample.length; k++) {
+    const i = k * stride;
+    const ours = answers[i], theirs = siteOfInput[ref.sample[k]];
+    if (ours === theirs) { same++; continue; }
+    const c = compareDistance(q[2 * i], q[2 * i + 1], siteXY[2 * ours], siteXY[2 * ours + 1],
+      siteXY[2 * theirs], siteXY[2 * theirs + 1]);
+    if (c === 0) ties++;
+    else if (c > 0) oursFarther++;
+    else theirsFarther++;
+  }
+  const bad = oursFarther + theirsFarther;
+  return `${bad ? 'WARNING: ' : ''}nearest vs cKDTree on ${ref.sample.length} sampled queries (every ${stride}th): ` +
+    `${same} same site, ${ties} exact ties, ${oursFarther} where ours is farther, ` +
+    `${theirsFarther} where cKDTree's is farther (exact distances)`;
+}
 
 export const cases = [
   {
@@ -23,5 +85,34 @@ export const cases = [
     run: (points) => triangulate(points, { order: 'brio' }),
     scipy: null,
     size: (t) => t.triangleCount,
+  },
+  {
+    // Voronoi diagram clipped to the exact bounding box of the points (so that the box is
+    // known in advance; the default would pad it by 10%). Includes the triangulation it
+    // is the dual of. scipy's Voronoi is unclipped: it does slightly less work.
+    name: 'voronoi',
+    setup: (points) => ({ clip: boundingBox(points) }),
+    run: (points, input) => voronoi(points, input),
+    scipy: 'voronoi',
+    // Faces with a site are the cells; the one face without is the outer face.
+    size: (d) => d.mesh.faceCount - 1,
+  },
+  {
+    // NEAREST_QUERIES query points on n sites: triangulation + locator + batch query.
+    // bytesPerPoint counts the locator alone (per site), not the triangulation it was
+    // built from nor the answer array (4 bytes per query).
+    name: 'nearest',
+    setup: nearestSetup,
+    run: (points, input) => {
+      const tri = triangulate(points);
+      const locator = new SiteLocator(tri);
+      const answers = locator.nearestMany(input.queries);
+      return { locator, answers, siteOfInput: tri.siteOfInput, siteXY: tri.siteXY };
+    },
+    scipy: 'kdtree-nearest',
+    refInput: (input) => input.queries,
+    retain: (r) => r.locator,
+    keep: (r) => ({ answers: r.answers, siteOfInput: r.siteOfInput, siteXY: r.siteXY }),
+    compare: compareNearest,
   },
 ];

@@ -106,7 +106,7 @@ const holder = { value: null };
  * so forcing one before every run measures re-optimisation, not steady state. With
  * gcEach (--gc-each) it is forced anyway, to show what a major GC between calls costs.
  */
-function timeRuns(fn, reps, before, gcEach) {
+function timeRuns(fn, reps, before, gcEach, onWarmup) {
   const times = [];
   for (let r = -1; r < reps; r++) {
     const arg = before ? before() : undefined;
@@ -116,6 +116,7 @@ function timeRuns(fn, reps, before, gcEach) {
     holder.value = fn(arg);
     const t1 = performance.now();
     if (r >= 0) times.push(t1 - t0);
+    else if (onWarmup) onWarmup(holder.value);
   }
   holder.value = null;
   return times;
@@ -130,12 +131,24 @@ function retainedBytes() {
   return m.heapUsed + m.external;
 }
 
-function bytesRetained(fn, points, inspect) {
+// Node lowers `external` for collected ArrayBuffers only once the event loop turns
+// (checked on Node 20 here: right after gc() the 16 MB of temporaries of a 1e6-query
+// nearestMany still counted, about 420 B per site at 1e4 sites; after one setImmediate
+// they did not), so each reading waits for one turn first.
+const turn = () => new Promise((resolve) => setImmediate(resolve));
+
+// retain(result) picks the part of the result whose memory is counted (the rest dies
+// before the second reading); facts are taken from what is retained.
+async function bytesRetained(fn, points, inspect, retain) {
   holder.value = null;
+  globalThis.gc();
+  await turn();
   globalThis.gc();
   globalThis.gc();
   const before = retainedBytes();
-  holder.value = fn(points);
+  holder.value = retain ? retain(fn(points)) : fn(points);
+  globalThis.gc();
+  await turn();
   globalThis.gc();
   globalThis.gc();
   const after = retainedBytes();
@@ -157,13 +170,16 @@ function probeScipy() {
   return JSON.parse(res.stdout.trim().split('\n').pop());
 }
 
-function runScipy(op, points, reps, timeoutS) {
+function runScipy(op, points, reps, timeoutS, queries) {
   const file = path.join(os.tmpdir(), `ambit-bench-${process.pid}-${Date.now()}.f64`);
+  const qfile = queries ? `${file.slice(0, -4)}-queries.f64` : null;
   // Native byte order on both sides: same machine, python reads it as numpy float64.
   writeFileSync(file, new Uint8Array(points.buffer, points.byteOffset, points.byteLength));
+  if (qfile) writeFileSync(qfile, new Uint8Array(queries.buffer, queries.byteOffset, queries.byteLength));
   try {
     // The script plans its runs to end by 80% of the limit, leaving a margin for noise.
     const args = [SCIPY_SCRIPT, '--op', op, '--file', file, '--repeats', String(reps), '--budget', String(0.8 * timeoutS)];
+    if (qfile) args.push('--queries', qfile);
     const res = spawnSync(PYTHON, args, {
       encoding: 'utf8',
       stdio: ['ignore', 'pipe', 'inherit'],
@@ -178,6 +194,7 @@ function runScipy(op, points, reps, timeoutS) {
     return JSON.parse(res.stdout.trim().split('\n').pop());
   } finally {
     unlinkSync(file);
+    if (qfile) unlinkSync(qfile);
   }
 }
 
@@ -255,7 +272,13 @@ async function main() {
         log(`${label}: ${reps} runs after a warm-up...`);
         let row;
         try {
-          const times = timeRuns(() => c.run(points), reps, null, opts.gcEach);
+          // Per-case input made outside the timed region (query points, the clip box...).
+          const input = c.setup ? c.setup(points, opts.seed) : undefined;
+          const run = (pts) => c.run(pts, input);
+          // Facts the case compares with scipy's answer later, taken from the warm-up result.
+          let kept = null;
+          const times = timeRuns(() => run(points), reps, null, opts.gcEach,
+            c.keep ? (result) => { kept = c.keep(result, input); } : undefined);
           const ms = median(times);
 
           // Sort baseline on fresh random keys, copied outside the timed region.
@@ -270,7 +293,7 @@ async function main() {
           const retained = [];
           let size = null;
           for (let r = 0; r < reps; r++) {
-            const m = bytesRetained(c.run, points, r === 0 ? c.size : null);
+            const m = await bytesRetained(run, points, r === 0 ? c.size : null, c.retain);
             if (r === 0 && c.size) size = m.facts;
             retained.push(m.bytes);
           }
@@ -283,7 +306,8 @@ async function main() {
             } else {
               const key = `${c.name}/${distName}`;
               const skip = refTimedOut.get(key) <= actualN;
-              const ref = skip ? null : runScipy(c.scipy, points, reps, opts.refTimeout);
+              const ref = skip ? null : runScipy(c.scipy, points, reps, opts.refTimeout,
+                c.refInput ? c.refInput(input) : null);
               if (skip) {
                 log(`${label}: scipy skipped: it ran out of time at n=${refTimedOut.get(key)}; refMs null`);
               } else if (ref && ref.timedOut) {
@@ -300,6 +324,10 @@ async function main() {
                   log(`${label}: note: scipy ${c.scipy} size ${ref.size}` +
                     (ref.skipped ? ` with ${ref.skipped} input points left out as coplanar` : '') +
                     `, ours ${size}`);
+                }
+                if (c.compare) {
+                  const note = c.compare(kept, ref, points, input);
+                  if (note) log(`${label}: ${note}`);
                 }
               }
             }

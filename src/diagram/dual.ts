@@ -493,24 +493,24 @@ class DiagramBuilder {
       const q = newPoint[p];
       if (q >= 0) { vertexXY[2 * q] = P[2 * p]; vertexXY[2 * q + 1] = P[2 * p + 1]; }
     }
-    const faceOfSite = new Int32Array(n).fill(-1);
-    for (let x = 0; x < all; x++) if (fOrigin[x] >= 0 && fFace[x] >= 0) faceOfSite[fFace[x]] = 0;
-    let F = 0;
-    for (let s = 0; s < n; s++) if (faceOfSite[s] === 0) faceOfSite[s] = F++;
-    const outerFace = F;
+    // Face s is the cell of site s (empty, faceEdge -1, when the cell misses the region); face n is outside.
+    const outerFace = n;
     const origin = new Int32Array(E), twin = new Int32Array(E), next = new Int32Array(E), face = new Int32Array(E);
-    const faceEdge = new Int32Array(F + 1).fill(-1), faceSite = new Int32Array(F + 1).fill(-1);
-    for (let s = 0; s < n; s++) if (faceOfSite[s] >= 0) faceSite[faceOfSite[s]] = s;
+    const faceEdge = new Int32Array(n + 1).fill(-1), faceSite = new Int32Array(n + 1);
+    for (let s = 0; s < n; s++) faceSite[s] = s;
+    faceSite[n] = -1;
     for (let x = 0; x < all; x++) {
       const e = newEdge[x];
       if (e < 0) continue;
       origin[e] = newPoint[fOrigin[x]];
       twin[e] = newEdge[fTwin[x]];
       next[e] = newEdge[fNext[x]];
-      const f = fFace[x] === OUTER ? outerFace : faceOfSite[fFace[x]];
+      const f = fFace[x] === OUTER ? outerFace : fFace[x];
       face[e] = f;
-      if (faceEdge[f] < 0) faceEdge[f] = e;
+      faceEdge[f] = e;
     }
+    const faceOfSite = new Int32Array(n);
+    for (let s = 0; s < n; s++) faceOfSite[s] = faceEdge[s] >= 0 ? s : -1;
     const mesh = new HalfEdgeMesh({ kind: 'voronoi', vertexXY, origin, twin, next, face, faceEdge, faceSite, outerFace });
     return { mesh, faceOfSite };
   }

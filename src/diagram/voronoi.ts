@@ -27,7 +27,7 @@ export interface CellNeighbors { sites: Int32Array; lengths: Float64Array }
 export class VoronoiDiagram {
   /** The Delaunay triangulation of the sites (the dual), with the site numbering. */
   readonly triangulation: Triangulation;
-  /** The cells: face f is the cell of site faceSite[f]; the outer face walks the region's boundary. */
+  /** The cells: face s is the cell of site s (empty, faceEdge -1, when it misses the region); face siteCount, the outer face, walks the region's boundary. */
   readonly mesh: HalfEdgeMesh;
   /** The clip region, counter-clockwise, interleaved x, y. */
   readonly region: Float64Array;

@@ -71,10 +71,12 @@ export function checkMesh(mesh: HalfEdgeMesh, options: MeshCheckOptions = {}): M
     xy: m.vertexXY as Ints, origin: m.origin as Ints, twin: m.twin as Ints, next: m.next as Ints,
     face: m.face as Ints, faceEdge: m.faceEdge as Ints, faceSite: m.faceSite as Ints,
   };
-  if (!checkShape(arrays, m.outerFace, p)) return p.result();
+  // A Voronoi mesh has a face per site; a site whose cell misses the region has an empty one.
+  const emptyFaces = kind === 'voronoi';
+  if (!checkShape(arrays, m.outerFace, emptyFaces, p)) return p.result();
   const s: Shape = {
     ...arrays, outer: m.outerFace as number,
-    V: arrays.xy.length >> 1, H: arrays.origin.length, F: arrays.faceEdge.length,
+    V: arrays.xy.length >> 1, H: arrays.origin.length, F: arrays.faceEdge.length, emptyFaces,
   };
   if (!checkPairs(s, p)) return p.result();
   const cycles = checkCycles(s, p);
@@ -98,10 +100,12 @@ export function assertMesh(mesh: HalfEdgeMesh, options: MeshCheckOptions = {}): 
 interface Shape {
   xy: Ints; origin: Ints; twin: Ints; next: Ints; face: Ints; faceEdge: Ints; faceSite: Ints;
   outer: number; V: number; H: number; F: number;
+  /** Bounded faces may be empty (faceEdge -1, no half-edges): a Voronoi cell outside the region. */
+  emptyFaces: boolean;
 }
 
 /** Stage 1: lengths, finite coordinates, every index in range. */
-function checkShape(a: Omit<Shape, 'outer' | 'V' | 'H' | 'F'>, outer: unknown, p: Problems): boolean {
+function checkShape(a: Omit<Shape, 'outer' | 'V' | 'H' | 'F' | 'emptyFaces'>, outer: unknown, emptyFaces: boolean, p: Problems): boolean {
   const { xy, origin, twin, next, face, faceEdge, faceSite } = a;
   const H = origin.length;
   const F = faceEdge.length;
@@ -132,6 +136,8 @@ function checkShape(a: Omit<Shape, 'outer' | 'V' | 'H' | 'F'>, outer: unknown, p
     const fe = faceEdge[f];
     if (H === 0) {
       if (fe !== -1) p.add(`face ${f}: faceEdge ${fe} must be -1 in a mesh with no edges`);
+    } else if (fe === -1 && emptyFaces && f !== outer) {
+      // an empty cell
     } else if (!isIndex(fe, 0, H)) {
       p.add(`face ${f}: faceEdge ${fe} is not a half-edge index in [0, ${H})`);
     }
@@ -204,9 +210,13 @@ function checkCycles(s: Shape, p: Problems): Cycles | null {
       length[f] = n;
     }
   }
+  let empty = 0;
   if (H > 0) {
     for (let f = 0; f < F && !p.full; f++) {
-      if (start[f] < 0) p.add(`face ${f} has no half-edges`);
+      if (faceEdge[f] === -1 && s.emptyFaces && f !== s.outer) {
+        if (start[f] >= 0) p.add(`face ${f} has faceEdge -1 (empty) but half-edges on it, through ${start[f]}`);
+        empty++;
+      } else if (start[f] < 0) p.add(`face ${f} has no half-edges`);
       else if (face[faceEdge[f]] !== f) p.add(`face ${f}: faceEdge ${faceEdge[f]} lies on face ${face[faceEdge[f]]}`);
     }
   }
@@ -244,8 +254,9 @@ function checkCycles(s: Shape, p: Problems): Cycles | null {
     if (a !== b) { parent[a] = b; components--; }
   }
   if (components > 1) p.add(`mesh is not connected: ${components} components`);
-  const euler = V - H / 2 + F;
-  if (euler !== 2) p.add(`Euler's relation fails: V - E + F = ${V} - ${H / 2} + ${F} = ${euler}, expected 2`);
+  // Empty faces (cells outside the region) are not faces of the surface.
+  const euler = V - H / 2 + (F - empty);
+  if (euler !== 2) p.add(`Euler's relation fails: V - E + F = ${V} - ${H / 2} + ${F - empty} = ${euler}, expected 2`);
   return p.count === 0 ? { start, length } : null;
 }
 

@@ -168,8 +168,10 @@ export function readMeshJSON(input: string | unknown): HalfEdgeMesh {
   const twin = indexArray(rawTwin, 'halfEdges.twin', 0, H, 'half-edge');
   const next = indexArray(rawNext, 'halfEdges.next', 0, H, 'half-edge');
   const face = indexArray(rawFace, 'halfEdges.face', 0, F, 'face');
-  // faces.edge is -1 only when there are no half-edges at all.
-  const faceEdge = H === 0 ? indexArray(rawEdge, 'faces.edge', -1, 0, 'half-edge') : indexArray(rawEdge, 'faces.edge', 0, H, 'half-edge');
+  // faces.edge is -1 only when there are no half-edges at all, or for an empty Voronoi cell (not the outer face).
+  const faceEdge = H === 0 ? indexArray(rawEdge, 'faces.edge', -1, 0, 'half-edge')
+    : indexArray(rawEdge, 'faces.edge', kind === 'voronoi' ? -1 : 0, H, 'half-edge');
+  if (H > 0 && faceEdge[outerFace] < 0) fail('out-of-range', 'the outer face has no half-edge', `faces.edge[${outerFace}]`);
   const faceSite = indexArray(rawSite, 'faces.site', -1, 2 ** 31, 'site');
 
   for (let e = 0; e < H; e++) {
@@ -191,6 +193,7 @@ export function readMeshJSON(input: string | unknown): HalfEdgeMesh {
     }
   }
   for (let f = 0; f < F && H > 0; f++) {
+    if (faceEdge[f] < 0) continue;
     if (face[faceEdge[f]] !== f) fail('bad-face', `half-edge ${faceEdge[f]} lies on face ${face[faceEdge[f]]}, not ${f}`, `faces.edge[${f}]`);
   }
   for (let e = 0; e < H; e++) {

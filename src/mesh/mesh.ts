@@ -26,10 +26,11 @@ export interface MeshArrays {
  *   Every half-edge has a twin: the boundary is walked by the outer face.
  * - face[e] is the face on the left of e. Bounded faces are counter-clockwise
  *   (y-up); the outer face, numbered outerFace, is walked clockwise.
- * - faceEdge[f] is one half-edge of face f (-1 only for the outer face of a
- *   mesh with no edges, e.g. a single site).
- * - faceSite[f] is the input site a face belongs to (a Voronoi cell), or -1
- *   (triangles, the outer face).
+ * - faceEdge[f] is one half-edge of face f; -1 for the outer face of a mesh
+ *   with no edges (a single site), and in a Voronoi mesh for the empty cell
+ *   of a site whose cell does not reach into the region.
+ * - faceSite[f] is the site a face belongs to (a Voronoi cell: face s is the
+ *   cell of site s), or -1 (triangles, the outer face).
  */
 export class HalfEdgeMesh implements MeshArrays {
   readonly kind: MeshKind;

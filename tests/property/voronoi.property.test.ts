@@ -263,23 +263,21 @@ function diagramProblems(input: number[], spec: RegionSpec, extra: Extra): strin
   }
   if (out.length > mark) return out;
 
-  // -- faces and sites
+  // -- faces and sites: face s is the cell of site s (the API), empty (faceEdge -1) when it has no cell;
+  // face n is the outer face.
   const F = m.faceEdge.length;
+  if (F !== n + 1 || m.outerFace !== n) out.push(`${F} faces with outer face ${m.outerFace}; expected ${n + 1} and ${n}`);
   if (m.faceSite[m.outerFace] !== -1) out.push(`outer face has faceSite ${m.faceSite[m.outerFace]}`);
   if (d.faceOfSite.length !== n) out.push(`faceOfSite has length ${d.faceOfSite.length}, expected ${n}`);
-  for (let f = 0; f < F; f++) {
-    if (f === m.outerFace) continue;
-    const s = m.faceSite[f];
-    if (!(s >= 0 && s < n)) out.push(`face ${f} has faceSite ${s}, not a site`);
-    else if (d.faceOfSite[s] !== f) out.push(`face ${f} belongs to site ${s} but faceOfSite[${s}] = ${d.faceOfSite[s]}`);
-  }
   const without: number[] = [];
-  for (let s = 0; s < n; s++) {
+  for (let s = 0; s < n && s < F; s++) {
+    if (m.faceSite[s] !== s) out.push(`face ${s} has faceSite ${m.faceSite[s]}, expected ${s}`);
     const f = d.faceOfSite[s];
-    if (f === -1) without.push(s);
-    else if (!(f >= 0 && f < F) || f === m.outerFace || m.faceSite[f] !== s) out.push(`faceOfSite[${s}] = ${f} is not a face of site ${s}`);
+    if (f === -1) {
+      without.push(s);
+      if (m.faceEdge[s] !== -1) out.push(`site ${s} is reported without a cell but face ${s} has half-edge ${m.faceEdge[s]}`);
+    } else if (f !== s || m.faceEdge[s] < 0) out.push(`faceOfSite[${s}] = ${f}, but face ${s} is ${m.faceEdge[s] < 0 ? 'empty' : 'its cell'}`);
   }
-  if (F - 1 !== n - without.length) out.push(`${F - 1} bounded faces for ${n - without.length} sites with a cell`);
   const reported = Array.from(d.sitesWithoutCell).sort((a, b) => a - b);
   if (JSON.stringify(reported) !== JSON.stringify(without)) out.push(`sitesWithoutCell ${reported} != sites with faceOfSite -1 ${without}`);
   if (out.length > mark) return out;

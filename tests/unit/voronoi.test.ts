@@ -154,7 +154,10 @@ describe('voronoi: worked examples', () => {
     expect(d.cellNeighbors(2).sites.length).toBe(0);
     expect(Array.from(d.neighborCounts())).toEqual([1, 1, 0]);
     expect(Array.from(d.cellAreas()).map((v) => +v.toFixed(12))).toEqual([4, 4, 0]);
-    expect(d.mesh.faceEdge.length).toBe(3); // two cells and the outer face
+    // Face s is the cell of site s; site 2's face is empty; face 3 is the outer face.
+    expect(d.mesh.faceEdge.length).toBe(4);
+    expect(d.mesh.faceEdge[2]).toBe(-1);
+    expect(d.mesh.outerFace).toBe(3);
     expect(d.nearest(20, 1)).toBe(2);
     expect(d.cellAt(20, 1)).toBe(-1);
     expect(d.cellAt(3.9, 1)).toBe(1);
