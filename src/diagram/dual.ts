@@ -1,10 +1,18 @@
 import { incircle, orient2d } from 'robust-predicates';
+import { InputError } from '../core/errors.js';
 import { HalfEdgeMesh } from '../mesh/mesh.js';
 import type { Triangulation } from '../triangulate/triangulation.js';
 import { ConvexRegion, SNAP_ULPS } from './clip.js';
 
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
+
+/**
+ * The closest two sites may be, relative to the largest coordinate (of the
+ * sites and the region), for their cell boundary to be placed in double
+ * precision: 2^-40 leaves about a thousand ulps of room for rounding.
+ */
+export const MIN_SPACING = 2 ** -40;
 
 /** Face number of the outer face while building. */
 const OUTER = -2;
@@ -66,8 +74,13 @@ class DiagramBuilder {
   /** Per vertex: 1 strictly inside, 2 inside on the boundary, 0 outside. */
   inside = new Uint8Array(0);
   readonly sideEvents: number[][];
+  /** One half-edge of every edge with an end on the boundary: all that the ring steps look at. */
+  readonly touching: number[] = [];
   clipStart = -1;
   clipEnd = -1;
+  /** Squared length of the shortest Delaunay edge seen, and a triangle holding it. */
+  closest = Infinity;
+  closestTriangle = -1;
   private readonly nearLimit: number;
   // The boundary ring, its owners, and the full arrays with the boundary half-edges.
   ring: number[] = [];
@@ -161,9 +174,15 @@ class DiagramBuilder {
     const { vert, twin: tw, real: T } = layout;
     this.allocate(3 * T + layout.count - T);
     const centre = this.circumcentres(vert, T);
+    this.checkSpacing(Math.sqrt(this.closest), () => {
+      const t = this.closestTriangle, v = [vert[3 * t], vert[3 * t + 1], vert[3 * t + 2]];
+      const d = (i: number, j: number) => Math.hypot(this.sites[2 * v[i]] - this.sites[2 * v[j]], this.sites[2 * v[i] + 1] - this.sites[2 * v[j] + 1]);
+      const pairs: [number, number, number][] = [[v[0], v[1], d(0, 1)], [v[1], v[2], d(1, 2)], [v[2], v[0], d(2, 0)]];
+      pairs.sort((p, q) => p[2] - q[2]);
+      return [Math.min(pairs[0][0], pairs[0][1]), Math.max(pairs[0][0], pairs[0][1])];
+    });
     const vertexOf = this.mergeCocircular(vert, tw, T, centre);
     this.placeVertices(T, vertexOf, centre);
-    this.mergeCoincident(tw, T, vertexOf);
     this.classifyVertices();
     this.clipEdges(vert, tw, T, vertexOf);
     this.linkInterior(tw, T, vertexOf);
@@ -192,6 +211,8 @@ class DiagramBuilder {
       const d = -2 * orient2d(ax, ay, sites[2 * b], sites[2 * b + 1], sites[2 * c], sites[2 * c + 1]);
       const bl = bx * bx + by * by, cl = cx * cx + cy * cy;
       const ux = (cy * bl - by * cl) / d, uy = (bx * cl - cx * bl) / d;
+      const shortest = Math.min(bl, cl, (cx - bx) ** 2 + (cy - by) ** 2);
+      if (shortest < this.closest) { this.closest = shortest; this.closestTriangle = t; }
       const X = ax + ux, Y = ay + uy;
       const ad = Math.abs(d);
       const rel = (8 * eps * (Math.abs(bx * cy) + Math.abs(by * cx))) / ad;
@@ -217,11 +238,15 @@ class DiagramBuilder {
       const y = tw[x];
       if (y >= 3 * T || y < x) continue;
       const t = (x / 3) | 0, u = (y / 3) | 0;
+      const dx = Math.abs(centre[3 * t] - centre[3 * u]), dy = Math.abs(centre[3 * t + 1] - centre[3 * u + 1]);
       const slack = centre[3 * t + 2] + centre[3 * u + 2];
-      if (!(Math.abs(centre[3 * t] - centre[3 * u]) <= slack && Math.abs(centre[3 * t + 1] - centre[3 * u + 1]) <= slack)) continue;
-      const a = vert[x], b = vert[nextOf(x)], p = vert[prevOf(x)], d = vert[prevOf(y)];
-      if (incircle(sites[2 * a], sites[2 * a + 1], sites[2 * b], sites[2 * b + 1],
-        sites[2 * p], sites[2 * p + 1], sites[2 * d], sites[2 * d + 1]) !== 0) continue;
+      if (!(dx <= slack && dy <= slack)) continue;
+      // Centres that round to the very same point are one vertex too, else their edge would have length zero.
+      if (dx !== 0 || dy !== 0) {
+        const a = vert[x], b = vert[nextOf(x)], p = vert[prevOf(x)], d = vert[prevOf(y)];
+        if (incircle(sites[2 * a], sites[2 * a + 1], sites[2 * b], sites[2 * b + 1],
+          sites[2 * p], sites[2 * p + 1], sites[2 * d], sites[2 * d + 1]) !== 0) continue;
+      }
       let ra = t, rb = u;
       while (parent[ra] !== ra) ra = parent[ra] = parent[parent[ra]];
       while (parent[rb] !== rb) rb = parent[rb] = parent[parent[rb]];
@@ -240,34 +265,6 @@ class DiagramBuilder {
       rep[t] = points.add(centre[3 * t], centre[3 * t + 1]);
     }
     this.vertexCount = points.count;
-  }
-
-  /**
-   * Circumcentres of nearly cocircular triangles can round to the very same
-   * point; the edge between them would have length zero, so their vertices
-   * are merged as exactly cocircular ones are. `vertexOf` is rewritten.
-   */
-  private mergeCoincident(tw: Int32Array, T: number, vertexOf: Int32Array): void {
-    const P = this.points.xy;
-    let parent: Int32Array | null = null;
-    const find = (v: number): number => {
-      while (parent![v] !== v) v = parent![v] = parent![parent![v]];
-      return v;
-    };
-    for (let x = 0; x < 3 * T; x++) {
-      const y = tw[x];
-      if (y >= 3 * T || y < x) continue;
-      const u = vertexOf[(x / 3) | 0], v = vertexOf[(y / 3) | 0];
-      if (u === v || P[2 * u] !== P[2 * v] || P[2 * u + 1] !== P[2 * v + 1]) continue;
-      if (!parent) {
-        parent = new Int32Array(this.vertexCount);
-        for (let i = 0; i < parent.length; i++) parent[i] = i;
-      }
-      const ru = find(u), rv = find(v);
-      if (ru !== rv) parent[Math.max(ru, rv)] = Math.min(ru, rv);
-    }
-    if (!parent) return;
-    for (let t = 0; t < T; t++) vertexOf[t] = find(vertexOf[t]);
   }
 
   private classifyVertices(): void {
@@ -298,10 +295,15 @@ class DiagramBuilder {
         if (vx === vy) { origin[x] = origin[y] = -1; continue; }
         // Both ends inside and not both on the boundary (the edge could lie along it): kept whole.
         const ix = inside[vx], iy = inside[vy];
-        if (ix !== 0 && iy !== 0 && (ix & iy) !== 2) { origin[x] = vy; origin[y] = vx; continue; }
+        if (ix !== 0 && iy !== 0 && (ix & iy) !== 2) {
+          origin[x] = vy; origin[y] = vx;
+          if (ix === 2 || iy === 2) this.touching.push(x);
+          continue;
+        }
         if (!this.clipBisector(vert[x], vert[nextOf(x)], vy, vx)) { origin[x] = origin[y] = -1; continue; }
         origin[x] = this.clipStart;
         origin[y] = this.clipEnd;
+        this.touching.push(x);
       } else {
         // A hull edge a→b: its Voronoi edge is a ray from the circumcentre, outwards (right of a→b).
         const g = 3 * T + ((y / 3) | 0) - T;
@@ -310,6 +312,7 @@ class DiagramBuilder {
         if (!this.clipBisector(vert[x], vert[nextOf(x)], -1, vertexOf[(x / 3) | 0])) { origin[x] = origin[g] = -1; continue; }
         origin[x] = this.clipStart;
         origin[g] = this.clipEnd;
+        this.touching.push(x);
       }
     }
   }
@@ -330,10 +333,35 @@ class DiagramBuilder {
     }
   }
 
+  /**
+   * Voronoi positions are floating point: two sites closer than MIN_SPACING
+   * times the largest coordinate would have a boundary between them that
+   * double precision cannot place, so their cells could overlap. Such input
+   * is refused with an InputError naming the two sites, not drawn wrong.
+   */
+  private checkSpacing(shortest: number, which: () => [number, number]): void {
+    let magnitude = this.region.size;
+    for (let i = 0; i < this.region.xy.length; i++) magnitude = Math.max(magnitude, Math.abs(this.region.xy[i]));
+    const xy = this.sites;
+    for (let i = 0; i < 2 * this.n; i++) magnitude = Math.max(magnitude, Math.abs(xy[i]));
+    if (shortest >= MIN_SPACING * magnitude) return;
+    const [a, b] = which();
+    throw new InputError('too-close',
+      `sites ${a} and ${b} are ${shortest} apart, closer than ${MIN_SPACING} times the largest coordinate (${magnitude}); ` +
+      'double precision cannot place the boundary between their cells', a, 'points');
+  }
+
   /** Collinear sites (or one): parallel bisector lines between neighbours along the line. */
   private buildLines(): void {
     const path = this.tri.linearOrder()!;
     const lines = Math.max(0, path.length - 1);
+    let shortest = Infinity, at = 0;
+    for (let i = 0; i < lines; i++) {
+      const a = path[i], b = path[i + 1];
+      const d = Math.hypot(this.sites[2 * b] - this.sites[2 * a], this.sites[2 * b + 1] - this.sites[2 * a + 1]);
+      if (d < shortest) { shortest = d; at = i; }
+    }
+    this.checkSpacing(shortest, () => [Math.min(path[at], path[at + 1]), Math.max(path[at], path[at + 1])]);
     this.allocate(2 * lines);
     const { origin, twin, face } = this;
     for (let i = 0; i < lines; i++) {
@@ -343,6 +371,7 @@ class DiagramBuilder {
       if (!this.clipBisector(a, b, -1, -1)) { origin[2 * i] = origin[2 * i + 1] = -1; continue; }
       origin[2 * i] = this.clipStart;
       origin[2 * i + 1] = this.clipEnd;
+      this.touching.push(2 * i);
     }
   }
 
@@ -395,13 +424,16 @@ class DiagramBuilder {
     while (ring.length > 1 && ring[0] === ring[ring.length - 1]) ring.pop();
     this.ring = ring;
     const origin = this.origin, twin = this.twin;
-    for (let x = 0; x < this.total; x++) if (origin[x] >= 0) origin[x] = remap[origin[x]];
+    for (const x of this.touching) {
+      if (origin[x] >= 0) origin[x] = remap[origin[x]];
+      if (origin[twin[x]] >= 0) origin[twin[x]] = remap[origin[twin[x]]];
+    }
     // Merging may leave an edge with both ends at one point, or joining two neighbours on the ring,
     // which puts it along the boundary with a cell of zero width beside it: drop those.
     const at = new Int32Array(this.points.count).fill(-1);
     ring.forEach((id, i) => { at[id] = i; });
     const R = ring.length;
-    for (let x = 0; x < this.total; x++) {
+    for (const x of this.touching) {
       const p = origin[x];
       if (p < 0) continue;
       const q = origin[twin[x]];
@@ -416,11 +448,13 @@ class DiagramBuilder {
     const isEvent = new Uint8Array(this.points.count);
     for (const id of ring) isEvent[id] = 1;
     const arriving = new Map<number, number[]>();
-    for (let x = 0; x < this.total; x++) {
-      if (origin[x] < 0) continue;
-      if (isEvent[origin[x]]) listAt(this.outgoing, origin[x]).push(x);
-      const end = origin[twin[x]];
-      if (isEvent[end]) listAt(arriving, end).push(x);
+    for (const t of this.touching) {
+      for (const x of [t, twin[t]]) {
+        if (origin[x] < 0) continue;
+        if (isEvent[origin[x]]) listAt(this.outgoing, origin[x]).push(x);
+        const end = origin[twin[x]];
+        if (isEvent[end]) listAt(arriving, end).push(x);
+      }
     }
     const R = ring.length;
     const owner = (this.owner = new Int32Array(R).fill(-1));
@@ -470,7 +504,10 @@ class DiagramBuilder {
       listAt(this.outgoing, ring[i]).push(inner);
     }
     // Everything not linked by rotation ends on the boundary: take the one way on with the same face.
-    for (let x = 0; x < all; x++) {
+    const pending: number[] = [];
+    for (const t of this.touching) pending.push(t, fTwin[t]);
+    for (let x = total; x < all; x++) pending.push(x);
+    for (const x of pending) {
       if (fOrigin[x] < 0 || fNext[x] >= 0) continue;
       const list = this.outgoing.get(fOrigin[fTwin[x]]);
       if (list) for (const y of list) if (fFace[y] === fFace[x]) { fNext[x] = y; break; }
@@ -478,40 +515,73 @@ class DiagramBuilder {
     }
   }
 
-  /** Keeps the half-edges and points in use; faces in site order, the outer face last. */
+  /**
+   * Keeps the half-edges and points in use. Dropped half-edges are few
+   * (merged vertices, edges outside the region), so each hole below the
+   * final count is filled by a kept half-edge from above it, and only the
+   * references to those move: no pass of random lookups over every edge.
+   * Face s is the cell of site s (empty when it misses the region); face n,
+   * the outer face, comes last.
+   */
   compact(): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
     const { all, fOrigin, fTwin, fNext, fFace, n } = this, P = this.points.xy, pointCount = this.points.count;
-    const newEdge = new Int32Array(all);
     let E = 0;
-    for (let x = 0; x < all; x++) newEdge[x] = fOrigin[x] >= 0 ? E++ : -1;
-    const newPoint = new Int32Array(pointCount).fill(-1);
-    for (let x = 0; x < all; x++) if (fOrigin[x] >= 0) newPoint[fOrigin[x]] = 0;
-    let V = 0;
-    for (let p = 0; p < pointCount; p++) if (newPoint[p] === 0) newPoint[p] = V++;
-    const vertexXY = new Float64Array(2 * V);
-    for (let p = 0; p < pointCount; p++) {
-      const q = newPoint[p];
-      if (q >= 0) { vertexXY[2 * q] = P[2 * p]; vertexXY[2 * q + 1] = P[2 * p + 1]; }
+    for (let x = 0; x < all; x++) if (fOrigin[x] >= 0) E++;
+    const moveTo = new Int32Array(all - E);
+    let hole = 0;
+    for (let y = E; y < all; y++) {
+      if (fOrigin[y] < 0) continue;
+      while (fOrigin[hole] >= 0) hole++;
+      moveTo[y - E] = hole++;
     }
-    // Face s is the cell of site s (empty, faceEdge -1, when the cell misses the region); face n is outside.
-    const outerFace = n;
-    const origin = new Int32Array(E), twin = new Int32Array(E), next = new Int32Array(E), face = new Int32Array(E);
+    const relabel = (z: number): number => (z >= E ? moveTo[z - E] : z);
+    // The half-edge before each mover on its face points at it: find them all before anything moves.
+    const before = new Int32Array(all - E);
+    for (let y = E; y < all; y++) {
+      if (fOrigin[y] < 0) continue;
+      let p = y;
+      while (fNext[p] !== y) p = fNext[p];
+      before[y - E] = p;
+    }
+    for (let y = E; y < all; y++) {
+      if (fOrigin[y] < 0) continue;
+      const p = before[y - E];
+      const x = moveTo[y - E];
+      fOrigin[x] = fOrigin[y];
+      fFace[x] = fFace[y];
+      fTwin[x] = relabel(fTwin[y]);
+      fNext[x] = relabel(fNext[y]);
+      fTwin[fTwin[x]] = x;
+      fNext[relabel(p)] = x;
+    }
+    // Points: keep those in use, in order.
+    const newPoint = new Int32Array(pointCount).fill(-1);
+    for (let x = 0; x < E; x++) newPoint[fOrigin[x]] = 0;
+    let V = 0;
+    for (let q = 0; q < pointCount; q++) if (newPoint[q] === 0) newPoint[q] = V++;
+    const vertexXY = new Float64Array(2 * V);
+    for (let q = 0; q < pointCount; q++) {
+      const r = newPoint[q];
+      if (r >= 0) { vertexXY[2 * r] = P[2 * q]; vertexXY[2 * r + 1] = P[2 * q + 1]; }
+    }
+    const origin = fOrigin.subarray(0, E), twin = fTwin.subarray(0, E), next = fNext.subarray(0, E), face = fFace.subarray(0, E);
     const faceEdge = new Int32Array(n + 1).fill(-1), faceSite = new Int32Array(n + 1);
     for (let s = 0; s < n; s++) faceSite[s] = s;
     faceSite[n] = -1;
-    for (let x = 0; x < all; x++) {
-      const e = newEdge[x];
-      if (e < 0) continue;
-      origin[e] = newPoint[fOrigin[x]];
-      twin[e] = newEdge[fTwin[x]];
-      next[e] = newEdge[fNext[x]];
-      const f = fFace[x] === OUTER ? outerFace : fFace[x];
-      face[e] = f;
-      faceEdge[f] = e;
+    for (let x = 0; x < E; x++) {
+      origin[x] = newPoint[origin[x]];
+      const f = face[x] === OUTER ? n : face[x];
+      face[x] = f;
+      faceEdge[f] = x;
     }
     const faceOfSite = new Int32Array(n);
     for (let s = 0; s < n; s++) faceOfSite[s] = faceEdge[s] >= 0 ? s : -1;
-    const mesh = new HalfEdgeMesh({ kind: 'voronoi', vertexXY, origin, twin, next, face, faceEdge, faceSite, outerFace });
+    // Views keep the buffers alive; copy only when much of them would be wasted.
+    const tight = <A extends Int32Array>(a: A): A => (E < 0.9 * all ? (a.slice() as A) : a);
+    const mesh = new HalfEdgeMesh({
+      kind: 'voronoi', vertexXY, origin: tight(origin), twin: tight(twin), next: tight(next), face: tight(face),
+      faceEdge, faceSite, outerFace: n,
+    });
     return { mesh, faceOfSite };
   }
 }

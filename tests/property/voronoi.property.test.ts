@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { checkMesh, orient, triangulate, voronoi } from '../../src/index.js';
+import { checkMesh, InputError, orient, triangulate, voronoi } from '../../src/index.js';
 import { allGenerators, latticeCircle, permuteBy, RING_RADII, type NamedGenerator } from '../support/generators.js';
 import { monotoneChainHull } from '../support/hull.js';
 import {
@@ -219,6 +219,25 @@ function diagramProblems(input: number[], spec: RegionSpec, extra: Extra): strin
   const xy = tri.siteXY;
   const plan = planRegion(spec, xy);
   const options = plan.clip === undefined ? undefined : { clip: plan.clip };
+  // The documented limit (README, src/diagram/dual.ts MIN_SPACING): sites closer than 2^-40 times the
+  // largest coordinate of the sites and the region are refused with InputError 'too-close', since double
+  // precision cannot place the boundary between them. Decide it here by brute force over all pairs.
+  let closest = Infinity;
+  for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) closest = Math.min(closest, Math.hypot(xy[2 * i] - xy[2 * j], xy[2 * i + 1] - xy[2 * j + 1]));
+  const regionPoly = plan.expected;
+  const rbb = boundingBox(Float64Array.from(regionPoly));
+  let magnitude = Math.max(rbb.maxX - rbb.minX, rbb.maxY - rbb.minY);
+  for (const v of regionPoly) magnitude = Math.max(magnitude, Math.abs(v));
+  for (const v of xy) magnitude = Math.max(magnitude, Math.abs(v));
+  if (closest < 2 ** -40 * magnitude) {
+    try {
+      if (extra.viaTriangulation) voronoi(tri, options); else voronoi(input, options);
+      out.push(`sites ${closest} apart at coordinates of ${magnitude}: expected InputError 'too-close'`);
+    } catch (err) {
+      if (!(err instanceof InputError) || err.code !== 'too-close') out.push(`expected InputError 'too-close', got ${String(err)}`);
+    }
+    return out;
+  }
   const d = extra.viaTriangulation ? voronoi(tri, options) : voronoi(input, options);
   const m = d.mesh;
   out.push(`(${plan.label}, ${n} sites, dimension ${tri.dimension})`);

@@ -472,3 +472,19 @@ describe('voronoi: bad queries', () => {
     expect(e.message).not.toMatch(/-1/);
   });
 });
+
+describe('voronoi: the precision limit', () => {
+  it('refuses sites too close for their boundary to be placed, naming them', () => {
+    // At 1e7 one ulp is about 1.9e-9: sites 1 ulp apart cannot have a boundary placed between them.
+    const x = 1e7;
+    const near = x + 2 ** -29; // the next double above 1e7 (ulp(1e7) = 2^-29)
+    let err: unknown;
+    try { voronoi([[x, x], [near, x], [x + 5, x + 7]]); } catch (e) { err = e; }
+    expect(err).toBeInstanceOf(InputError);
+    expect((err as InputError).code).toBe('too-close');
+    expect((err as InputError).message).toMatch(/sites 0 and 1/);
+    // The same pattern a million times wider is fine.
+    const d = voronoi([[x, x], [x + 2 ** -9, x], [x + 5, x + 7]]);
+    expect(checkMesh(d.mesh).ok).toBe(true);
+  });
+});
