@@ -65,10 +65,10 @@ class DiagramBuilder {
   readonly points = new Points();
   /** Half-edges of the unclipped diagram; origin -1 marks a dropped one. */
   total = 0;
-  origin = new Int32Array(0);
-  twin = new Int32Array(0);
-  face = new Int32Array(0);
-  next = new Int32Array(0);
+  origin: Int32Array = new Int32Array(0);
+  twin: Int32Array = new Int32Array(0);
+  face: Int32Array = new Int32Array(0);
+  next: Int32Array = new Int32Array(0);
   /** Voronoi vertices are points 0..vertexCount-1. */
   vertexCount = 0;
   /** Per vertex: 1 strictly inside, 2 inside on the boundary, 0 outside. */
@@ -89,10 +89,10 @@ class DiagramBuilder {
   cornerBase = 0;
   outgoing = new Map<number, number[]>();
   all = 0;
-  fOrigin = new Int32Array(0);
-  fTwin = new Int32Array(0);
-  fFace = new Int32Array(0);
-  fNext = new Int32Array(0);
+  fOrigin: Int32Array = new Int32Array(0);
+  fTwin: Int32Array = new Int32Array(0);
+  fFace: Int32Array = new Int32Array(0);
+  fNext: Int32Array = new Int32Array(0);
 
   constructor(tri: Triangulation, region: ConvexRegion) {
     this.tri = tri;
@@ -103,12 +103,14 @@ class DiagramBuilder {
     this.nearLimit = 4 * (region.radius + 1);
   }
 
+  /** Room for the diagram's half-edges and, after them, a guess at the boundary's; linkBoundary grows it if short. */
   private allocate(total: number): void {
     this.total = total;
-    this.origin = new Int32Array(total);
-    this.twin = new Int32Array(total);
-    this.face = new Int32Array(total);
-    this.next = new Int32Array(total).fill(-1);
+    const room = total + 2 * (this.region.count + 8 * Math.ceil(Math.sqrt(total)) + 64);
+    this.origin = new Int32Array(room);
+    this.twin = new Int32Array(room);
+    this.face = new Int32Array(room);
+    this.next = new Int32Array(room).fill(-1);
   }
 
   /** A new point where an edge s→e is cut by side j, at parameter t. */
@@ -490,9 +492,12 @@ class DiagramBuilder {
   linkBoundary(): void {
     const { ring, owner, total } = this;
     const R = ring.length, all = (this.all = total + 2 * R);
-    const fOrigin = (this.fOrigin = new Int32Array(all)), fTwin = (this.fTwin = new Int32Array(all));
-    const fFace = (this.fFace = new Int32Array(all)), fNext = (this.fNext = new Int32Array(all).fill(-1));
-    fOrigin.set(this.origin); fTwin.set(this.twin); fFace.set(this.face); fNext.set(this.next);
+    if (all > this.origin.length) {
+      const grow = (a: Int32Array, fill: number): Int32Array => { const b = new Int32Array(all).fill(fill); b.set(a.subarray(0, total)); return b; };
+      this.origin = grow(this.origin, 0); this.twin = grow(this.twin, 0); this.face = grow(this.face, 0); this.next = grow(this.next, -1);
+    }
+    const fOrigin = (this.fOrigin = this.origin), fTwin = (this.fTwin = this.twin);
+    const fFace = (this.fFace = this.face), fNext = (this.fNext = this.next);
     for (let i = 0; i < R; i++) {
       const inner = total + 2 * i, outer = inner + 1;
       fOrigin[inner] = ring[i];
@@ -554,22 +559,27 @@ class DiagramBuilder {
       fTwin[fTwin[x]] = x;
       fNext[relabel(p)] = x;
     }
-    // Points: keep those in use, in order.
-    const newPoint = new Int32Array(pointCount).fill(-1);
-    for (let x = 0; x < E; x++) newPoint[fOrigin[x]] = 0;
+    // Points: those in use stay; the few unused ones below the count are filled from above it.
+    const used = new Uint8Array(pointCount);
+    for (let x = 0; x < E; x++) used[fOrigin[x]] = 1;
     let V = 0;
-    for (let q = 0; q < pointCount; q++) if (newPoint[q] === 0) newPoint[q] = V++;
-    const vertexXY = new Float64Array(2 * V);
-    for (let q = 0; q < pointCount; q++) {
-      const r = newPoint[q];
-      if (r >= 0) { vertexXY[2 * r] = P[2 * q]; vertexXY[2 * r + 1] = P[2 * q + 1]; }
+    for (let q = 0; q < pointCount; q++) V += used[q];
+    const pointMove = new Int32Array(pointCount - V);
+    let gap = 0;
+    for (let q = V; q < pointCount; q++) {
+      if (!used[q]) continue;
+      while (used[gap]) gap++;
+      pointMove[q - V] = gap;
+      P[2 * gap] = P[2 * q]; P[2 * gap + 1] = P[2 * q + 1];
+      used[gap++] = 1;
     }
+    const vertexXY = P.slice(0, 2 * V);
     const origin = fOrigin.subarray(0, E), twin = fTwin.subarray(0, E), next = fNext.subarray(0, E), face = fFace.subarray(0, E);
     const faceEdge = new Int32Array(n + 1).fill(-1), faceSite = new Int32Array(n + 1);
     for (let s = 0; s < n; s++) faceSite[s] = s;
     faceSite[n] = -1;
     for (let x = 0; x < E; x++) {
-      origin[x] = newPoint[origin[x]];
+      if (origin[x] >= V) origin[x] = pointMove[origin[x] - V];
       const f = face[x] === OUTER ? n : face[x];
       face[x] = f;
       faceEdge[f] = x;
@@ -577,7 +587,7 @@ class DiagramBuilder {
     const faceOfSite = new Int32Array(n);
     for (let s = 0; s < n; s++) faceOfSite[s] = faceEdge[s] >= 0 ? s : -1;
     // Views keep the buffers alive; copy only when much of them would be wasted.
-    const tight = <A extends Int32Array>(a: A): A => (E < 0.9 * all ? (a.slice() as A) : a);
+    const tight = (a: Int32Array): Int32Array => (E < 0.9 * (a.buffer.byteLength >> 2) ? a.slice() : a);
     const mesh = new HalfEdgeMesh({
       kind: 'voronoi', vertexXY, origin: tight(origin), twin: tight(twin), next: tight(next), face: tight(face),
       faceEdge, faceSite, outerFace: n,
