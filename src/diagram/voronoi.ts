@@ -58,14 +58,26 @@ export class VoronoiDiagram {
     }
   }
 
-  /** The vertices of a site's cell, counter-clockwise, interleaved; empty when it has no cell. */
+  /**
+   * The vertices of a site's cell, counter-clockwise, interleaved, starting
+   * at the smallest by (x, then y); empty when the site has no cell.
+   */
   cellPolygon(site: number): Float64Array {
     this.checkSite(site);
     const f = this.faceOfSite[site];
     if (f < 0) return new Float64Array(0);
     const vs = this.mesh.faceVertices(f), xy = this.mesh.vertexXY;
+    let first = 0;
+    for (let i = 1; i < vs.length; i++) {
+      const a = vs[i], b = vs[first];
+      if (xy[2 * a] < xy[2 * b] || (xy[2 * a] === xy[2 * b] && xy[2 * a + 1] < xy[2 * b + 1])) first = i;
+    }
     const out = new Float64Array(2 * vs.length);
-    vs.forEach((v, i) => { out[2 * i] = xy[2 * v]; out[2 * i + 1] = xy[2 * v + 1]; });
+    for (let i = 0; i < vs.length; i++) {
+      const v = vs[(first + i) % vs.length];
+      out[2 * i] = xy[2 * v];
+      out[2 * i + 1] = xy[2 * v + 1];
+    }
     return out;
   }
 
