@@ -1,3 +1,5 @@
+import { boundingBox } from './bounds.js';
+
 /**
  * Sorting points along a Hilbert curve. Points close on the curve are close
  * in the plane, so visiting them in this order keeps every walk short; equal
@@ -70,14 +72,7 @@ function radixSort(ids: Uint32Array, keys: Uint32Array): { ids: Uint32Array; key
  */
 export function hilbertSort(xy: Float64Array): { ids: Uint32Array; keys: Uint32Array } {
   const n = xy.length >> 1;
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const x = xy[2 * i], y = xy[2 * i + 1];
-    if (x < minX) minX = x;
-    if (x > maxX) maxX = x;
-    if (y < minY) minY = y;
-    if (y > maxY) maxY = y;
-  }
+  const { minX, minY, maxX, maxY } = boundingBox(xy, n);
   const side = Math.max(maxX - minX, maxY - minY);
   // Slightly under 2^16 so that the largest coordinate still maps inside the grid.
   const scale = side > 0 ? (MASK + 0.999) / side : 0;

@@ -184,14 +184,17 @@ class DiagramBuilder {
       return [Math.min(pairs[0][0], pairs[0][1]), Math.max(pairs[0][0], pairs[0][1])];
     });
     const vertexOf = this.mergeCocircular(vert, tw, T, centre);
-    this.placeVertices(T, vertexOf, centre);
-    this.classifyVertices();
+    // Vertex t is the centre of triangle t; a merged class uses its smallest triangle's. Parents point to
+    // smaller triangles, so one pass in order resolves every chain.
+    for (let t = 0; t < T; t++) vertexOf[t] = vertexOf[vertexOf[t]];
+    this.vertexCount = T;
+    this.classifyVertices(vertexOf);
     this.clipEdges(vert, tw, T, vertexOf);
-    this.linkInterior(tw, T, vertexOf);
   }
 
   /**
-   * Circumcentre of every triangle, with a bound on its rounding error.
+   * Circumcentre of every triangle, as points 0..T-1, with a bound on its
+   * rounding error (returned).
    * Computed relative to the first corner, for precision far from the origin;
    * the exact orientation of the true corners gives the sign, which rounded
    * differences could flip for a near-flat triangle.
@@ -204,7 +207,11 @@ class DiagramBuilder {
    */
   private circumcentres(vert: Int32Array, T: number): Float64Array {
     const sites = this.sites, eps = Number.EPSILON / 2;
-    const out = new Float64Array(3 * T);
+    const points = this.points;
+    points.xy = new Float64Array(2 * T + 2048);
+    points.count = T;
+    const P = points.xy;
+    const out = new Float64Array(T);
     for (let t = 0; t < T; t++) {
       const a = vert[3 * t], b = vert[3 * t + 1], c = vert[3 * t + 2];
       const ax = sites[2 * a], ay = sites[2 * a + 1];
@@ -220,9 +227,9 @@ class DiagramBuilder {
       const rel = (8 * eps * (Math.abs(bx * cy) + Math.abs(by * cx))) / ad;
       const ex = (7 * eps * (Math.abs(cy) * bl + Math.abs(by) * cl)) / ad + Math.abs(ux) * (rel + 2 * eps) + eps * Math.abs(X);
       const ey = (7 * eps * (Math.abs(bx) * cl + Math.abs(cx) * bl)) / ad + Math.abs(uy) * (rel + 2 * eps) + eps * Math.abs(Y);
-      out[3 * t] = X;
-      out[3 * t + 1] = Y;
-      out[3 * t + 2] = 4 * Math.max(ex, ey);
+      P[2 * t] = X;
+      P[2 * t + 1] = Y;
+      out[t] = 4 * Math.max(ex, ey);
     }
     return out;
   }
@@ -232,16 +239,16 @@ class DiagramBuilder {
    * asked only when the two centres agree within their error bounds);
    * returns each triangle's representative, the smallest of its class.
    */
-  private mergeCocircular(vert: Int32Array, tw: Int32Array, T: number, centre: Float64Array): Int32Array {
-    const sites = this.sites;
+  private mergeCocircular(vert: Int32Array, tw: Int32Array, T: number, error: Float64Array): Int32Array {
+    const sites = this.sites, P = this.points.xy;
     const parent = new Int32Array(T);
     for (let t = 0; t < T; t++) parent[t] = t;
     for (let x = 0; x < 3 * T; x++) {
       const y = tw[x];
       if (y >= 3 * T || y < x) continue;
       const t = (x / 3) | 0, u = (y / 3) | 0;
-      const dx = Math.abs(centre[3 * t] - centre[3 * u]), dy = Math.abs(centre[3 * t + 1] - centre[3 * u + 1]);
-      const slack = centre[3 * t + 2] + centre[3 * u + 2];
+      const dx = Math.abs(P[2 * t] - P[2 * u]), dy = Math.abs(P[2 * t + 1] - P[2 * u + 1]);
+      const slack = error[t] + error[u];
       if (!(dx <= slack && dy <= slack)) continue;
       // Centres that round to the very same point are one vertex too, else their edge would have length zero.
       if (dx !== 0 || dy !== 0) {
@@ -257,22 +264,12 @@ class DiagramBuilder {
     return parent;
   }
 
-  /** One vertex per class, at the circumcentre of its first triangle; rewrites `rep` to vertex numbers. */
-  private placeVertices(T: number, rep: Int32Array, centre: Float64Array): void {
-    const points = this.points;
-    points.reserve(T);
-    // Parents point to smaller triangles, so every parent is renumbered before its children.
-    for (let t = 0; t < T; t++) {
-      if (rep[t] !== t) { rep[t] = rep[rep[t]]; continue; }
-      rep[t] = points.add(centre[3 * t], centre[3 * t + 1]);
-    }
-    this.vertexCount = points.count;
-  }
-
-  private classifyVertices(): void {
+  /** Inside, on the boundary or outside, for the vertices in use (vertex v with rep[v] = v). */
+  private classifyVertices(rep: Int32Array): void {
     const region = this.region, P = this.points.xy, m = region.count;
     const inside = (this.inside = new Uint8Array(this.vertexCount));
     for (let v = 0; v < this.vertexCount; v++) {
+      if (rep[v] !== v) continue;
       const x = P[2 * v], y = P[2 * v + 1];
       let state = 1;
       for (let j = 0; j < m; j++) {
@@ -286,7 +283,7 @@ class DiagramBuilder {
   }
 
   private clipEdges(vert: Int32Array, tw: Int32Array, T: number, vertexOf: Int32Array): void {
-    const { origin, twin, face, inside } = this;
+    const { origin, twin, face, inside, next } = this;
     for (let x = 0; x < 3 * T; x++) {
       face[x] = vert[x];
       const y = tw[x];
@@ -299,41 +296,47 @@ class DiagramBuilder {
         const ix = inside[vx], iy = inside[vy];
         if (ix !== 0 && iy !== 0 && (ix & iy) !== 2) {
           origin[x] = vy; origin[y] = vx;
+          if (ix === 1) next[x] = this.rotate(x, tw, T, vertexOf);
+          if (iy === 1) next[y] = this.rotate(y, tw, T, vertexOf);
           if (ix === 2 || iy === 2) this.touching.push(x);
           continue;
         }
         if (!this.clipBisector(vert[x], vert[nextOf(x)], vy, vx)) { origin[x] = origin[y] = -1; continue; }
         origin[x] = this.clipStart;
         origin[y] = this.clipEnd;
+        if (this.clipEnd === vx && ix === 1) next[x] = this.rotate(x, tw, T, vertexOf);
+        if (this.clipStart === vy && iy === 1) next[y] = this.rotate(y, tw, T, vertexOf);
         this.touching.push(x);
       } else {
         // A hull edge a→b: its Voronoi edge is a ray from the circumcentre, outwards (right of a→b).
         const g = 3 * T + ((y / 3) | 0) - T;
         twin[x] = g; twin[g] = x;
         face[g] = vert[nextOf(x)];
-        if (!this.clipBisector(vert[x], vert[nextOf(x)], -1, vertexOf[(x / 3) | 0])) { origin[x] = origin[g] = -1; continue; }
+        const vx = vertexOf[(x / 3) | 0];
+        if (!this.clipBisector(vert[x], vert[nextOf(x)], -1, vx)) { origin[x] = origin[g] = -1; continue; }
         origin[x] = this.clipStart;
         origin[g] = this.clipEnd;
+        if (this.clipEnd === vx && inside[vx] === 1) next[x] = this.rotate(x, tw, T, vertexOf);
         this.touching.push(x);
       }
     }
   }
 
-  /** Next around a vertex strictly inside the region, by rotation about the cell's site. */
-  private linkInterior(tw: Int32Array, T: number, vertexOf: Int32Array): void {
-    const { origin, twin, next, inside } = this;
-    for (let x = 0; x < 3 * T; x++) {
-      if (origin[x] < 0) continue;
-      const end = vertexOf[(x / 3) | 0];
-      if (origin[twin[x]] !== end || inside[end] !== 1) continue;
-      let z = tw[prevOf(x)];
-      for (;;) {
-        const c = z < 3 * T ? z : 3 * T + ((z / 3) | 0) - T;
-        if (origin[c] >= 0) { next[x] = c; break; }
-        z = tw[prevOf(z)];
-      }
+  /**
+   * The half-edge after x, which ends at a vertex strictly inside the region:
+   * turn about x's site to the next Delaunay edge whose dual is kept. Around
+   * such a vertex only merging (cocircular sites) drops edges, and a ray out
+   * of it (numbered after the triangles) is always kept.
+   */
+  private rotate(x: number, tw: Int32Array, T: number, vertexOf: Int32Array): number {
+    let z = tw[prevOf(x)];
+    for (;;) {
+      if (z >= 3 * T) return 3 * T + ((z / 3) | 0) - T;
+      if (vertexOf[(z / 3) | 0] !== vertexOf[(tw[z] / 3) | 0]) return z;
+      z = tw[prevOf(z)];
     }
   }
+
 
   /**
    * Voronoi positions are floating point: two sites closer than MIN_SPACING

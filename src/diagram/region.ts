@@ -1,6 +1,7 @@
 import { InputError } from '../core/errors.js';
 import { readPoints, type PointInput } from '../core/input.js';
 import { orient } from '../core/predicates.js';
+import { boundingBox } from '../core/bounds.js';
 
 /** An axis-aligned rectangle. */
 export interface RectRegion { minX: number; minY: number; maxX: number; maxY: number }
@@ -131,14 +132,7 @@ function checkWidth(pts: Float64Array, m: number): void {
 
 /** The default region: the sites' bounding box padded by 10% of its larger side (1 when that side is 0). */
 export function paddedBounds(xy: Float64Array, count: number): Float64Array {
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  for (let i = 0; i < count; i++) {
-    const x = xy[2 * i], y = xy[2 * i + 1];
-    if (x < minX) minX = x;
-    if (x > maxX) maxX = x;
-    if (y < minY) minY = y;
-    if (y > maxY) maxY = y;
-  }
+  const { minX, minY, maxX, maxY } = boundingBox(xy, count);
   const side = Math.max(maxX - minX, maxY - minY);
   const pad = side > 0 ? 0.1 * side : 1;
   return Float64Array.of(minX - pad, minY - pad, maxX + pad, minY - pad, maxX + pad, maxY + pad, minX - pad, maxY + pad);

@@ -4,6 +4,7 @@ import { InputError } from '../core/errors.js';
 import { hilbertSort } from '../core/hilbert.js';
 import { MAX_COORDINATE } from '../core/limits.js';
 import type { Triangulation } from '../triangulate/triangulation.js';
+import { boundingBox } from '../core/bounds.js';
 
 /**
  * Nearest-site queries by walking the Delaunay graph.
@@ -282,14 +283,7 @@ export class SiteLocator {
    */
   private buildGrid(): Int32Array {
     const n = this.siteCount, xy = this.xy;
-    let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-    for (let s = 0; s < n; s++) {
-      const x = xy[2 * s], y = xy[2 * s + 1];
-      if (x < minX) minX = x;
-      if (x > maxX) maxX = x;
-      if (y < minY) minY = y;
-      if (y > maxY) maxY = y;
-    }
+    const { minX, minY, maxX, maxY } = boundingBox(xy, n);
     const target = Math.max(1, Math.floor(n / 8));
     const w = maxX - minX, h = maxY - minY;
     let cell: number;
