@@ -208,7 +208,8 @@ class DiagramBuilder {
   private circumcentres(vert: Int32Array, T: number): Float64Array {
     const sites = this.sites, eps = Number.EPSILON / 2;
     const points = this.points;
-    points.xy = new Float64Array(2 * T + 2048);
+    // Room for the boundary crossings too (a few per hull edge and per boundary cell, O(sqrt T) in practice).
+    points.xy = new Float64Array(2 * T + 2 * (16 * Math.ceil(Math.sqrt(T)) + 4096));
     points.count = T;
     const P = points.xy;
     const out = new Float64Array(T);
@@ -284,11 +285,12 @@ class DiagramBuilder {
 
   private clipEdges(vert: Int32Array, tw: Int32Array, T: number, vertexOf: Int32Array): void {
     const { origin, twin, face, inside, next } = this;
+    // Voronoi half-edge x is dual to Delaunay half-edge x: same twin (but for rays), face = x's site.
+    twin.set(tw.subarray(0, 3 * T));
+    face.set(vert.subarray(0, 3 * T));
     for (let x = 0; x < 3 * T; x++) {
-      face[x] = vert[x];
       const y = tw[x];
       if (y < 3 * T) {
-        twin[x] = y;
         if (y < x) continue;
         const vx = vertexOf[(x / 3) | 0], vy = vertexOf[(y / 3) | 0];
         if (vx === vy) { origin[x] = origin[y] = -1; continue; }
