@@ -11,7 +11,8 @@ export type InsertionOrder = 'brio' | 'hilbert' | 'input';
 
 export interface TriangulateOptions {
   /**
-   * Insertion order (default 'hilbert'). The result is a Delaunay
+   * Insertion order (default 'brio', measured faster than plain curve
+   * order from 1e5 sites up; see the README). The result is a Delaunay
    * triangulation whichever is chosen; where four or more sites are
    * cocircular, which diagonal is kept depends on the order.
    */
@@ -486,7 +487,7 @@ function pathMesh(vertexXY: Float64Array, path: Int32Array): HalfEdgeMesh {
  * topological decision exact. Throws InputError on invalid input.
  */
 export function triangulate(points: PointInput, options: TriangulateOptions = {}): Triangulation {
-  const order = options.order ?? 'hilbert';
+  const order = options.order ?? 'brio';
   if (order !== 'hilbert' && order !== 'brio' && order !== 'input') {
     throw new InputError('bad-option', `order must be 'hilbert', 'brio' or 'input', got ${String(order)}`, -1, 'order');
   }
