@@ -3,7 +3,7 @@
 import { readFileSync, mkdirSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { dirname, join } from 'node:path';
-import { triangulate, checkMesh, writeTriangulationJSON, writeMeshJSON } from 'ambit';
+import { triangulate, voronoi, checkMesh, writeTriangulationJSON, writeMeshJSON } from 'ambit';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const town = JSON.parse(readFileSync(join(here, 'data', 'quillon-vale.json'), 'utf8'));
@@ -29,10 +29,23 @@ for (let s = 0; s < tri.siteCount; s++) {
   console.log(`    ${nameOfSite[s].padEnd(24)} ${Array.from(tri.neighbors(s), (t) => nameOfSite[t]).join(', ')}`);
 }
 
+// Straight-line service areas: each facility's Voronoi cell inside the town limit.
+const areas = voronoi(tri, { clip: town.boundary.ring });
+const km2 = areas.cellAreas();
+console.log('  straight-line service areas inside the town limit (Voronoi cells):');
+for (let s = 0; s < tri.siteCount; s++) {
+  const n = areas.cellNeighbors(s).sites.length;
+  console.log(`    ${nameOfSite[s].padEnd(24)} ${(km2[s] / 1e6).toFixed(2).padStart(6)} km²  ${n} neighbouring areas`);
+}
+console.log(`    total ${(areas.totalArea() / 1e6).toFixed(2)} km² (the town limit), mesh valid: ${checkMesh(areas.mesh).ok}`);
+const probe = { x: 532000, y: 6181000 };
+console.log(`  nearest facility to the point (${probe.x}, ${probe.y}): ${nameOfSite[areas.nearest(probe.x, probe.y)]}`);
+
 const out = join(here, '..', 'out', 'demo');
 mkdirSync(out, { recursive: true });
 writeFileSync(join(out, 'triangulation.json'), writeTriangulationJSON(tri));
 writeFileSync(join(out, 'mesh.json'), writeMeshJSON(tri.toMesh()));
-console.log(`  wrote out/demo/triangulation.json and out/demo/mesh.json`);
+writeFileSync(join(out, 'service-areas.json'), writeMeshJSON(areas.mesh));
+console.log('  wrote out/demo/triangulation.json, out/demo/mesh.json and out/demo/service-areas.json');
 console.log('  Caution: these are straight-line geometric neighbourhoods, not travel-time service areas.');
 console.log('  For emergency or regulated services, defer to local codes and licensed practice.');
