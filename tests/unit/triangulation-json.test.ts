@@ -60,8 +60,8 @@ describe('triangulation JSON', () => {
     expectFormatError(() => readTriangulationJSON(d), 'version', 'bad-version');
   });
   it('names the field of a broken mesh, below "mesh."', () => {
-    const d = good(); d.mesh.halfEdges.twin[3] = 0;
-    expectFormatError(() => readTriangulationJSON(d), 'mesh.halfEdges.twin[3]');
+    const d = good(); d.mesh.halfEdges.twin[0] = 0; // its own twin: the first broken pair
+    expectFormatError(() => readTriangulationJSON(d), 'mesh.halfEdges.twin[0]', 'bad-twin');
     const e = good(); e.mesh.vertices[2] = 'x';
     expectFormatError(() => readTriangulationJSON(e), 'mesh.vertices[2]', 'not-a-number');
     const f = good(); f.mesh.halfEdges.origin[0] = 99;
