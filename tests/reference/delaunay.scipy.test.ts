@@ -1,10 +1,10 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { mulberry32 } from '../../src/core/random.js';
 import { describe, expect, it } from 'vitest';
 import { orient, triangulate } from '../../src/index.js';
 import { canonicalTriangles, distinctCount, isStrictlyDelaunay } from '../support/brute.js';
 import { runPython, scipyAvailability } from '../support/scipy.js';
+import { liveCases } from '../support/live-cases.js';
 
 /**
  * Outside reference: scipy.spatial.Delaunay from Debian's python3-scipy.
@@ -61,36 +61,6 @@ describe('Delaunay triangles equal scipy.spatial.Delaunay on committed fixtures'
   }
 });
 
-/** Uniform numbers in [0, 1) from a seed, so a failing live case can be replayed. */
-function prng(seed: number): () => number {
-  const words = mulberry32(seed);
-  return () => words() / 4294967296;
-}
-
-interface LiveCase { name: string; points: [number, number][]; shift: [number, number] }
-
-function liveCases(seed: number): LiveCase[] {
-  const rnd = prng(seed);
-  const n = (lo: number, hi: number) => lo + Math.floor(rnd() * (hi - lo + 1));
-  const cases: LiveCase[] = [];
-  const uniform = Array.from({ length: n(3, 1500) }, () => [rnd(), rnd()] as [number, number]);
-  cases.push({ name: 'uniform', points: uniform, shift: [0, 0] });
-  const centres = Array.from({ length: n(1, 8) }, () => [rnd() * 200 - 100, rnd() * 200 - 100]);
-  const gauss = () => Math.sqrt(-2 * Math.log(1 - rnd())) * Math.cos(2 * Math.PI * rnd());
-  const clustered = Array.from({ length: n(10, 1000) }, () => {
-    const c = centres[n(0, centres.length - 1)];
-    return [c[0] + gauss(), c[1] + gauss()] as [number, number];
-  });
-  cases.push({ name: 'clusters', points: clustered, shift: [0, 0] });
-  const distinct = Array.from({ length: n(3, 200) }, () => [rnd() * 50, rnd() * 50] as [number, number]);
-  const dups = Array.from({ length: 3 * distinct.length }, () => distinct[n(0, distinct.length - 1)]);
-  cases.push({ name: 'duplicates', points: dups, shift: [0, 0] });
-  // Qhull merges points near 1e7, so scipy gets them moved back by an offset
-  // whose subtraction is exact (checked below); the triangulation is the same.
-  const big = Array.from({ length: n(3, 800) }, () => [1e7 + rnd() * 100, 1e7 + rnd() * 100] as [number, number]);
-  cases.push({ name: 'offset 1e7', points: big, shift: [1e7, 1e7] });
-  return cases;
-}
 
 function sterbenz(x: number, s: number): boolean {
   if (s === 0) return true;
@@ -134,7 +104,7 @@ describe('Delaunay triangles equal scipy.spatial.Delaunay on fresh random input 
 
   it(`${title}, scipy ${avail.version}`, () => {
     let compared = 0;
-    for (const c of liveCases(seed)) {
+    for (const c of liveCases(seed, 3, true)) {
       const label = `${c.name} (${c.points.length} points), seed ${seed}`;
       const moved = c.points.map(([x, y]) => [x - c.shift[0], y - c.shift[1]] as [number, number]);
       // Sterbenz's lemma: x - s is exact when s/2 <= x <= 2s (same sign), so the move is an exact translation.

@@ -1,13 +1,13 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { mulberry32 } from '../../src/core/random.js';
 import { triangulate, voronoi } from '../../src/index.js';
 import { isStrictlyDelaunay } from '../support/brute.js';
 import { runPython, scipyAvailability } from '../support/scipy.js';
 import {
   boundingBox, clippedLength, compareDistanceExact, convexDepth, nearestSiteExact, ulp,
 } from '../support/voronoi-brute.js';
+import { liveCases, prng } from '../support/live-cases.js';
 
 /**
  * Outside reference: scipy.spatial.Voronoi (Qhull) and scipy.spatial.cKDTree
@@ -166,37 +166,6 @@ describe('Voronoi diagram equals scipy.spatial.Voronoi on committed fixtures', (
   }
 });
 
-/** Uniform numbers in [0, 1) from a seed, so a failing live case can be replayed. */
-function prng(seed: number): () => number {
-  const words = mulberry32(seed);
-  return () => words() / 4294967296;
-}
-
-interface LiveCase { name: string; points: [number, number][]; shift: [number, number] }
-
-function liveCases(seed: number): LiveCase[] {
-  const rnd = prng(seed);
-  const n = (lo: number, hi: number) => lo + Math.floor(rnd() * (hi - lo + 1));
-  const cases: LiveCase[] = [];
-  cases.push({ name: 'uniform', points: Array.from({ length: n(20, 2000) }, () => [rnd(), rnd()] as [number, number]), shift: [0, 0] });
-  const centres = Array.from({ length: n(1, 8) }, () => [rnd() * 200 - 100, rnd() * 200 - 100]);
-  const gauss = () => Math.sqrt(-2 * Math.log(1 - rnd())) * Math.cos(2 * Math.PI * rnd());
-  cases.push({
-    name: 'clusters',
-    points: Array.from({ length: n(20, 1000) }, () => {
-      const c = centres[n(0, centres.length - 1)];
-      return [c[0] + gauss(), c[1] + gauss()] as [number, number];
-    }),
-    shift: [0, 0],
-  });
-  // Qhull merges points near 1e7: scipy gets them moved back by an exactly subtracted offset (Sterbenz).
-  cases.push({
-    name: 'offset 1e7',
-    points: Array.from({ length: n(20, 800) }, () => [1e7 + rnd() * 100, 1e7 + rnd() * 100] as [number, number]),
-    shift: [1e7, 1e7],
-  });
-  return cases;
-}
 
 describe('Voronoi diagram and nearest sites equal scipy on fresh random input (live)', () => {
   const avail = scipyAvailability();
@@ -217,7 +186,7 @@ describe('Voronoi diagram and nearest sites equal scipy on fresh random input (l
 
   it(`scipy.spatial.Voronoi, ${title}, scipy ${avail.version}`, () => {
     let compared = 0;
-    for (const c of liveCases(seed)) {
+    for (const c of liveCases(seed, 20, false)) {
       const label = `${c.name} (${c.points.length} points), seed ${seed}`;
       const tri = triangulate(c.points);
       // Unique Delaunay triangulation (exact predicates): the Voronoi combinatorics are well defined.
@@ -268,7 +237,7 @@ describe('Voronoi diagram and nearest sites equal scipy on fresh random input (l
 
   it(`nearestMany equals scipy.spatial.cKDTree.query (p=2) on 10^5 queries, ${title}`, () => {
     const rnd = prng(seed ^ 0x5f3759df);
-    const c = liveCases(seed)[0];
+    const c = liveCases(seed, 20, false)[0];
     const b = boundingBox(c.points.flat());
     const w = b.maxX - b.minX, h = b.maxY - b.minY;
     const q = new Float64Array(2e5);
