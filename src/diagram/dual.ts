@@ -545,14 +545,10 @@ class DiagramBuilder {
       moveTo[y - E] = hole++;
     }
     const relabel = (z: number): number => (z >= E ? moveTo[z - E] : z);
-    // The half-edge before each mover on its face points at it: find them all before anything moves.
+    // The half-edge before each mover on its face points at it: find them all, in one pass, before anything
+    // moves (walking a long face, the boundary of a ring of sites say, once per mover would be quadratic).
     const before = new Int32Array(all - E);
-    for (let y = E; y < all; y++) {
-      if (fOrigin[y] < 0) continue;
-      let p = y;
-      while (fNext[p] !== y) p = fNext[p];
-      before[y - E] = p;
-    }
+    for (let x = 0; x < all; x++) if (fOrigin[x] >= 0 && fNext[x] >= E) before[fNext[x] - E] = x;
     for (let y = E; y < all; y++) {
       if (fOrigin[y] < 0) continue;
       const p = before[y - E];
