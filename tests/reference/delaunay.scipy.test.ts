@@ -3,8 +3,8 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { orient, triangulate } from '../../src/index.js';
 import { canonicalTriangles, distinctCount, isStrictlyDelaunay } from '../support/brute.js';
-import { runPython, scipyAvailability } from '../support/scipy.js';
-import { liveCases } from '../support/live-cases.js';
+import { runPython } from '../support/scipy.js';
+import { liveCases, liveSeed, scipyOrSkip } from '../support/live-cases.js';
 
 /**
  * Outside reference: scipy.spatial.Delaunay from Debian's python3-scipy.
@@ -86,23 +86,12 @@ function usable(points: [number, number][], simplices: number[][], siteOfInput: 
 }
 
 describe('Delaunay triangles equal scipy.spatial.Delaunay on fresh random input (live)', () => {
-  const avail = scipyAvailability();
-  const seed = Number(process.env.AMBIT_SEED ?? Date.now() % 2 ** 31);
+  const seed = liveSeed();
   const title = `fresh random input, seed ${seed} (replay with AMBIT_SEED=${seed})`;
+  const version = scipyOrSkip(title);
+  if (version === null) return;
 
-  if (!avail.ok && process.env.CI) {
-    // CI installs python3-scipy: a missing reference there is a failure, not a skip.
-    it(title, () => {
-      throw new Error(`${avail.reason}; CI requires the live scipy comparison`);
-    });
-    return;
-  }
-  if (!avail.ok) {
-    it.skip(`${title}: SKIPPED because ${avail.reason}`, () => {});
-    return;
-  }
-
-  it(`${title}, scipy ${avail.version}`, () => {
+  it(`${title}, scipy ${version}`, () => {
     let compared = 0;
     for (const c of liveCases(seed, 3, true)) {
       const label = `${c.name} (${c.points.length} points), seed ${seed}`;

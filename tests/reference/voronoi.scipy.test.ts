@@ -3,11 +3,11 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { triangulate, voronoi } from '../../src/index.js';
 import { isStrictlyDelaunay } from '../support/brute.js';
-import { runPython, scipyAvailability } from '../support/scipy.js';
+import { runPython } from '../support/scipy.js';
 import {
   boundingBox, clippedLength, compareDistanceExact, convexDepth, nearestSiteExact, ulp,
 } from '../support/voronoi-brute.js';
-import { liveCases, prng } from '../support/live-cases.js';
+import { liveCases, liveSeed, prng, scipyOrSkip } from '../support/live-cases.js';
 
 /**
  * Outside reference: scipy.spatial.Voronoi (Qhull) and scipy.spatial.cKDTree
@@ -168,23 +168,12 @@ describe('Voronoi diagram equals scipy.spatial.Voronoi on committed fixtures', (
 
 
 describe('Voronoi diagram and nearest sites equal scipy on fresh random input (live)', () => {
-  const avail = scipyAvailability();
-  const seed = Number(process.env.AMBIT_SEED ?? Date.now() % 2 ** 31);
+  const seed = liveSeed();
   const title = `seed ${seed} (replay with AMBIT_SEED=${seed})`;
+  const version = scipyOrSkip(title);
+  if (version === null) return;
 
-  if (!avail.ok && process.env.CI) {
-    // CI installs python3-scipy: a missing reference there is a failure, not a skip.
-    it(title, () => {
-      throw new Error(`${avail.reason}; CI requires the live scipy comparison`);
-    });
-    return;
-  }
-  if (!avail.ok) {
-    it.skip(`${title}: SKIPPED because ${avail.reason}`, () => {});
-    return;
-  }
-
-  it(`scipy.spatial.Voronoi, ${title}, scipy ${avail.version}`, () => {
+  it(`scipy.spatial.Voronoi, ${title}, scipy ${version}`, () => {
     let compared = 0;
     for (const c of liveCases(seed, 20, false)) {
       const label = `${c.name} (${c.points.length} points), seed ${seed}`;

@@ -1,4 +1,6 @@
+import { it } from 'vitest';
 import { mulberry32 } from '../../src/core/random.js';
+import { scipyAvailability } from './scipy.js';
 
 /** Uniform numbers in [0, 1) from a seed, so a failing live case can be replayed. */
 export function prng(seed: number): () => number {
@@ -35,4 +37,28 @@ export function liveCases(seed: number, minPoints: number, withDuplicates: boole
   const big = Array.from({ length: n(minPoints, 800) }, () => [1e7 + rnd() * 100, 1e7 + rnd() * 100] as [number, number]);
   cases.push({ name: 'offset 1e7', points: big, shift: [1e7, 1e7] });
   return cases;
+}
+
+/** The seed of a live run: AMBIT_SEED replays one, else the clock picks it. */
+export function liveSeed(): number {
+  return Number(process.env.AMBIT_SEED ?? Date.now() % 2 ** 31);
+}
+
+/**
+ * Call inside a describe block of a live scipy comparison. Without Debian's
+ * scipy it registers one test that fails under CI (CI installs
+ * python3-scipy, so a missing reference there is a failure) or is skipped
+ * with the reason elsewhere, and returns null; with scipy it returns scipy's version.
+ */
+export function scipyOrSkip(title: string): string | null {
+  const avail = scipyAvailability();
+  if (avail.ok) return avail.version ?? 'unknown';
+  if (process.env.CI) {
+    it(title, () => {
+      throw new Error(`${avail.reason}; CI requires the live scipy comparison`);
+    });
+  } else {
+    it.skip(`${title}: SKIPPED because ${avail.reason}`, () => {});
+  }
+  return null;
 }
