@@ -61,12 +61,13 @@ export class Triangulation {
   private vertexEdge: Int32Array | null = null;
 
   /** @internal Use {@link triangulate}. */
-  constructor(sites: SiteSet, order: InsertionOrder) {
+  constructor(sites: SiteSet, order: InsertionOrder | null) {
     this.siteXY = sites.xy;
     this.siteCount = sites.count;
     this.siteOfInput = sites.siteOfInput;
     this.dimension = 0;
-    this.build(orderSites(sites.curveOrder, order));
+    // null: the caller (fromMesh) fills the triangles in itself.
+    if (order !== null) this.build(orderSites(sites.curveOrder, order));
   }
 
   /**
@@ -78,8 +79,7 @@ export class Triangulation {
   static fromMesh(mesh: HalfEdgeMesh, siteOfInput: Int32Array): Triangulation {
     const n = mesh.vertexCount;
     const xy = mesh.vertexXY.slice();
-    const tri = new Triangulation({ xy, count: Math.min(n, 1), siteOfInput, curveOrder: new Uint32Array(Math.min(n, 1)) }, 'input');
-    tri.siteCount = n;
+    const tri = new Triangulation({ xy, count: n, siteOfInput, curveOrder: new Uint32Array(0) }, null);
     const bounded = mesh.faceCount - 1;
     if (bounded === 0) {
       tri.dimension = n === 1 ? 0 : 1;
