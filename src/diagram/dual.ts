@@ -60,6 +60,7 @@ export function clippedVoronoi(tri: Triangulation, regionXY: Float64Array): { me
 class DiagramBuilder {
   readonly region: ConvexRegion;
   readonly sites: Float64Array;
+  readonly siteOfRank: Int32Array | null;
   readonly n: number;
   readonly tri: Triangulation;
   readonly points = new Points();
@@ -73,6 +74,8 @@ class DiagramBuilder {
   vertexCount = 0;
   /** Per vertex: 1 strictly inside, 2 inside on the boundary, 0 outside. */
   inside = new Uint8Array(0);
+  /** Vertices found on the boundary (state 2), merged ones included. */
+  private readonly onBoundary: number[] = [];
   readonly sideEvents: number[][];
   /** One half-edge of every edge with an end on the boundary: all that the ring steps look at. */
   readonly touching: number[] = [];
@@ -97,7 +100,10 @@ class DiagramBuilder {
   constructor(tri: Triangulation, region: ConvexRegion) {
     this.tri = tri;
     this.region = region;
-    this.sites = tri.siteXY;
+    // Work in the triangulation's rank order (sites that are near are near in memory); faces are
+    // mapped to site numbers at the end.
+    this.sites = tri.implicitLayout()?.xy ?? tri.siteXY;
+    this.siteOfRank = tri.implicitLayout()?.siteOfRank ?? null;
     this.n = tri.siteCount;
     this.sideEvents = Array.from({ length: region.count }, () => []);
     this.nearLimit = 4 * (region.radius + 1);
@@ -118,6 +124,10 @@ class DiagramBuilder {
     const id = this.points.add(sx + t * (ex - sx), sy + t * (ey - sy));
     this.sideEvents[j].push(id);
     return id;
+  }
+
+  private siteOf(rank: number): number {
+    return this.siteOfRank ? this.siteOfRank[rank] : rank;
   }
 
   private isNear(id: number): boolean {
@@ -175,44 +185,52 @@ class DiagramBuilder {
     if (!layout) { this.buildLines(); return; }
     const { vert, twin: tw, real: T } = layout;
     this.allocate(3 * T + layout.count - T);
-    const centre = this.circumcentres(vert, T);
+    const cocircular = this.centres(vert, tw, T);
     this.checkSpacing(Math.sqrt(this.closest), () => {
       const t = this.closestTriangle, v = [vert[3 * t], vert[3 * t + 1], vert[3 * t + 2]];
       const d = (i: number, j: number) => Math.hypot(this.sites[2 * v[i]] - this.sites[2 * v[j]], this.sites[2 * v[i] + 1] - this.sites[2 * v[j] + 1]);
       const pairs: [number, number, number][] = [[v[0], v[1], d(0, 1)], [v[1], v[2], d(1, 2)], [v[2], v[0], d(2, 0)]];
       pairs.sort((p, q) => p[2] - q[2]);
-      return [Math.min(pairs[0][0], pairs[0][1]), Math.max(pairs[0][0], pairs[0][1])];
+      const s0 = this.siteOf(pairs[0][0]), s1 = this.siteOf(pairs[0][1]);
+      return [Math.min(s0, s1), Math.max(s0, s1)];
     });
-    const vertexOf = this.mergeCocircular(vert, tw, T, centre);
-    // Vertex t is the centre of triangle t; a merged class uses its smallest triangle's. Parents point to
-    // smaller triangles, so one pass in order resolves every chain.
-    for (let t = 0; t < T; t++) vertexOf[t] = vertexOf[vertexOf[t]];
     this.vertexCount = T;
-    this.classifyVertices(vertexOf);
+    const vertexOf = this.mergeCocircular(cocircular, T);
+    for (const v of this.onBoundary) {
+      if (vertexOf !== null && vertexOf[v] !== v) continue;
+      const x = this.points.xy[2 * v], y = this.points.xy[2 * v + 1];
+      for (let j = 0; j < this.region.count; j++) if (this.region.side(j, x, y) === 0) this.sideEvents[j].push(v);
+    }
     this.clipEdges(vert, tw, T, vertexOf);
   }
 
   /**
-   * Circumcentre of every triangle, as points 0..T-1, with a bound on its
-   * rounding error (returned).
-   * Computed relative to the first corner, for precision far from the origin;
-   * the exact orientation of the true corners gives the sign, which rounded
-   * differences could flip for a near-flat triangle.
+   * In one pass over the triangles: the circumcentre of each, as points
+   * 0..T-1; whether it lies inside the region; and, against each neighbour
+   * already computed, whether the two circumcircles coincide. Returns those
+   * cocircular pairs of triangles, flat.
    *
-   * Error bound (first-order, with a safety factor of 4): the corner
-   * differences carry a relative error of ε, their squared lengths 4ε, the
-   * numerator cy·|b|² − by·|c|² then at most 7ε(|cy||b|² + |by||c|²), and
-   * the denominator d (robust-predicates' estimate of twice the orientation)
-   * 4ε(|bx cy| + |by cx|)/|d| relative; adding the corner back rounds once more.
+   * Centres are computed relative to the first corner, for precision far
+   * from the origin; the exact orientation of the true corners gives the
+   * sign, which rounded differences could flip for a near-flat triangle.
+   * Each centre gets a bound on its rounding error (first-order, with a
+   * safety factor of 4): the corner differences carry a relative error of
+   * ε, their squared lengths 4ε, the numerator cy·|b|² − by·|c|² then at
+   * most 7ε(|cy||b|² + |by||c|²), and the denominator d (robust-predicates'
+   * estimate of twice the orientation) 4ε(|bx cy| + |by cx|)/|d| relative;
+   * adding the corner back rounds once more. Only centres that agree within
+   * their bounds are asked the exact incircle question.
    */
-  private circumcentres(vert: Int32Array, T: number): Float64Array {
-    const sites = this.sites, eps = Number.EPSILON / 2;
+  private centres(vert: Int32Array, tw: Int32Array, T: number): number[] {
+    const sites = this.sites, eps = Number.EPSILON / 2, region = this.region, m = region.count;
     const points = this.points;
     // Room for the boundary crossings too (a few per hull edge and per boundary cell, O(sqrt T) in practice).
     points.xy = new Float64Array(2 * T + 2 * (16 * Math.ceil(Math.sqrt(T)) + 4096));
     points.count = T;
     const P = points.xy;
-    const out = new Float64Array(T);
+    const error = new Float64Array(T);
+    const inside = (this.inside = new Uint8Array(T));
+    const cocircular: number[] = [];
     for (let t = 0; t < T; t++) {
       const a = vert[3 * t], b = vert[3 * t + 1], c = vert[3 * t + 2];
       const ax = sites[2 * a], ay = sites[2 * a + 1];
@@ -230,79 +248,81 @@ class DiagramBuilder {
       const ey = (7 * eps * (Math.abs(bx) * cl + Math.abs(cx) * bl)) / ad + Math.abs(uy) * (rel + 2 * eps) + eps * Math.abs(Y);
       P[2 * t] = X;
       P[2 * t + 1] = Y;
-      out[t] = 4 * Math.max(ex, ey);
+      const err = (error[t] = 4 * Math.max(ex, ey));
+      let state = 1;
+      for (let j = 0; j < m; j++) {
+        const f = region.side(j, X, Y);
+        if (f < 0) { state = 0; break; }
+        if (f === 0) state = 2;
+      }
+      inside[t] = state;
+      if (state === 2) this.onBoundary.push(t);
+      for (let k = 0; k < 3; k++) {
+        const y = tw[3 * t + k];
+        if (y >= 3 * T || y >= 3 * t) continue;
+        const u = (y / 3) | 0;
+        const dx = Math.abs(X - P[2 * u]), dy = Math.abs(Y - P[2 * u + 1]);
+        const slack = err + error[u];
+        if (!(dx <= slack && dy <= slack)) continue;
+        // Centres that round to the very same point are one vertex too, else their edge would have length zero.
+        if (dx !== 0 || dy !== 0) {
+          const p = vert[prevOf(y)];
+          if (incircle(ax, ay, sites[2 * b], sites[2 * b + 1], sites[2 * c], sites[2 * c + 1],
+            sites[2 * p], sites[2 * p + 1]) !== 0) continue;
+        }
+        cocircular.push(t, u);
+      }
     }
-    return out;
+    return cocircular;
   }
 
   /**
-   * Union–find over triangles whose circumcircles coincide (exact incircle,
-   * asked only when the two centres agree within their error bounds);
-   * returns each triangle's representative, the smallest of its class.
+   * Union–find over the cocircular pairs: each triangle's representative,
+   * the smallest of its class, whose centre and inside state the class
+   * takes. Null when no circumcircles coincide (the common case), so that
+   * the passes after need no lookup.
    */
-  private mergeCocircular(vert: Int32Array, tw: Int32Array, T: number, error: Float64Array): Int32Array {
-    const sites = this.sites, P = this.points.xy;
+  private mergeCocircular(pairs: number[], T: number): Int32Array | null {
+    if (pairs.length === 0) return null;
     const parent = new Int32Array(T);
     for (let t = 0; t < T; t++) parent[t] = t;
-    for (let x = 0; x < 3 * T; x++) {
-      const y = tw[x];
-      if (y >= 3 * T || y < x) continue;
-      const t = (x / 3) | 0, u = (y / 3) | 0;
-      const dx = Math.abs(P[2 * t] - P[2 * u]), dy = Math.abs(P[2 * t + 1] - P[2 * u + 1]);
-      const slack = error[t] + error[u];
-      if (!(dx <= slack && dy <= slack)) continue;
-      // Centres that round to the very same point are one vertex too, else their edge would have length zero.
-      if (dx !== 0 || dy !== 0) {
-        const a = vert[x], b = vert[nextOf(x)], p = vert[prevOf(x)], d = vert[prevOf(y)];
-        if (incircle(sites[2 * a], sites[2 * a + 1], sites[2 * b], sites[2 * b + 1],
-          sites[2 * p], sites[2 * p + 1], sites[2 * d], sites[2 * d + 1]) !== 0) continue;
-      }
-      let ra = t, rb = u;
+    for (let i = 0; i < pairs.length; i += 2) {
+      let ra = pairs[i], rb = pairs[i + 1];
       while (parent[ra] !== ra) ra = parent[ra] = parent[parent[ra]];
       while (parent[rb] !== rb) rb = parent[rb] = parent[parent[rb]];
       if (ra !== rb) parent[Math.max(ra, rb)] = Math.min(ra, rb);
     }
+    // Parents point to smaller triangles, so one pass in order resolves every chain.
+    const inside = this.inside;
+    for (let t = 0; t < T; t++) {
+      const r = (parent[t] = parent[parent[t]]);
+      inside[t] = inside[r];
+    }
     return parent;
   }
 
-  /** Inside, on the boundary or outside, for the vertices in use (vertex v with rep[v] = v). */
-  private classifyVertices(rep: Int32Array): void {
-    const region = this.region, P = this.points.xy, m = region.count;
-    const inside = (this.inside = new Uint8Array(this.vertexCount));
-    for (let v = 0; v < this.vertexCount; v++) {
-      if (rep[v] !== v) continue;
-      const x = P[2 * v], y = P[2 * v + 1];
-      let state = 1;
-      for (let j = 0; j < m; j++) {
-        const f = region.side(j, x, y);
-        if (f < 0) { state = 0; break; }
-        if (f === 0) state = 2;
-      }
-      inside[v] = state;
-      if (state === 2) for (let j = 0; j < m; j++) if (region.side(j, x, y) === 0) this.sideEvents[j].push(v);
-    }
-  }
-
-  private clipEdges(vert: Int32Array, tw: Int32Array, T: number, vertexOf: Int32Array): void {
-    const { origin, twin, face, inside, next } = this;
+  private clipEdges(vert: Int32Array, tw: Int32Array, T: number, vertexOf: Int32Array | null): void {
+    const { origin, twin, face, inside, next } = this, site = this.siteOfRank;
     // Voronoi half-edge x is dual to Delaunay half-edge x: same twin (but for rays), face = x's site.
     twin.set(tw.subarray(0, 3 * T));
-    face.set(vert.subarray(0, 3 * T));
     for (let x = 0; x < 3 * T; x++) {
       const y = tw[x];
+      face[x] = site === null ? vert[x] : site[vert[x]];
       if (y < 3 * T) {
-        if (y < x) continue;
-        const vx = vertexOf[(x / 3) | 0], vy = vertexOf[(y / 3) | 0];
-        if (vx === vy) { origin[x] = origin[y] = -1; continue; }
+        const tx = (x / 3) | 0, ty = (y / 3) | 0;
+        const vx = vertexOf === null ? tx : vertexOf[tx], vy = vertexOf === null ? ty : vertexOf[ty];
+        if (vx === vy) { origin[x] = -1; continue; }
         // Both ends inside and not both on the boundary (the edge could lie along it): kept whole.
+        // Each half-edge of such a pair is written on its own turn, so that writes stay in sequence.
         const ix = inside[vx], iy = inside[vy];
         if (ix !== 0 && iy !== 0 && (ix & iy) !== 2) {
-          origin[x] = vy; origin[y] = vx;
+          origin[x] = vy;
           if (ix === 1) next[x] = this.rotate(x, tw, T, vertexOf);
-          if (iy === 1) next[y] = this.rotate(y, tw, T, vertexOf);
-          if (ix === 2 || iy === 2) this.touching.push(x);
+          if ((ix === 2 || iy === 2) && x < y) this.touching.push(x);
           continue;
         }
+        // A pair that meets the boundary is cut once, on the turn of its smaller half-edge.
+        if (y < x) continue;
         if (!this.clipBisector(vert[x], vert[nextOf(x)], vy, vx)) { origin[x] = origin[y] = -1; continue; }
         origin[x] = this.clipStart;
         origin[y] = this.clipEnd;
@@ -313,8 +333,8 @@ class DiagramBuilder {
         // A hull edge a→b: its Voronoi edge is a ray from the circumcentre, outwards (right of a→b).
         const g = 3 * T + ((y / 3) | 0) - T;
         twin[x] = g; twin[g] = x;
-        face[g] = vert[nextOf(x)];
-        const vx = vertexOf[(x / 3) | 0];
+        face[g] = site === null ? vert[nextOf(x)] : site[vert[nextOf(x)]];
+        const vx = vertexOf === null ? (x / 3) | 0 : vertexOf[(x / 3) | 0];
         if (!this.clipBisector(vert[x], vert[nextOf(x)], -1, vx)) { origin[x] = origin[g] = -1; continue; }
         origin[x] = this.clipStart;
         origin[g] = this.clipEnd;
@@ -330,8 +350,9 @@ class DiagramBuilder {
    * such a vertex only merging (cocircular sites) drops edges, and a ray out
    * of it (numbered after the triangles) is always kept.
    */
-  private rotate(x: number, tw: Int32Array, T: number, vertexOf: Int32Array): number {
+  private rotate(x: number, tw: Int32Array, T: number, vertexOf: Int32Array | null): number {
     let z = tw[prevOf(x)];
+    if (vertexOf === null) return z >= 3 * T ? 3 * T + ((z / 3) | 0) - T : z;
     for (;;) {
       if (z >= 3 * T) return 3 * T + ((z / 3) | 0) - T;
       if (vertexOf[(z / 3) | 0] !== vertexOf[(tw[z] / 3) | 0]) return z;
@@ -484,7 +505,7 @@ class DiagramBuilder {
     let start = owner.findIndex((o) => o >= 0);
     if (start < 0) {
       // No edge reaches into the region: one cell covers it all, the cell of any interior point.
-      owner[0] = nearestSiteBrute(this.sites, this.n, this.region.cx, this.region.cy);
+      owner[0] = this.siteOf(nearestSiteBrute(this.sites, this.n, this.region.cx, this.region.cy));
       start = 0;
     }
     for (let k = 1; k < R; k++) {
@@ -574,7 +595,8 @@ class DiagramBuilder {
       P[2 * gap] = P[2 * q]; P[2 * gap + 1] = P[2 * q + 1];
       used[gap++] = 1;
     }
-    const vertexXY = P.slice(0, 2 * V);
+    // A view when it wastes little: copying the points costs as much as computing them.
+    const vertexXY = 2 * V < 0.9 * P.length ? P.slice(0, 2 * V) : P.subarray(0, 2 * V);
     const origin = fOrigin.subarray(0, E), twin = fTwin.subarray(0, E), next = fNext.subarray(0, E), face = fFace.subarray(0, E);
     const faceEdge = new Int32Array(n + 1).fill(-1), faceSite = new Int32Array(n + 1);
     for (let s = 0; s < n; s++) faceSite[s] = s;

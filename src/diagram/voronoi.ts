@@ -215,6 +215,6 @@ export class VoronoiDiagram {
  */
 export function voronoi(input: PointInput | Triangulation, options: VoronoiOptions = {}): VoronoiDiagram {
   const tri = input instanceof Triangulation ? input : triangulate(input);
-  const region = options.clip === undefined ? paddedBounds(tri.siteXY, tri.siteCount) : readClipRegion(options.clip);
+  const region = options.clip === undefined ? paddedBounds(tri.rankCoordinates(), tri.siteCount) : readClipRegion(options.clip);
   return new VoronoiDiagram(tri, region);
 }

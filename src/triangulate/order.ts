@@ -9,10 +9,12 @@ import { mulberry32 } from '../core/random.js';
  */
 
 
-/** Splits `curveOrder` (sites along the Hilbert curve) into BRIO rounds, stably. */
-export function brioOrder(curveOrder: Uint32Array, seed = 0x2545f491, minRound = 64): Uint32Array {
-  const n = curveOrder.length;
-  if (n <= minRound) return curveOrder;
+/**
+ * BRIO rounds over n sites already numbered along the Hilbert curve: the
+ * numbers 0..n-1 in insertion order, each round in increasing (curve) order.
+ */
+export function brioOrder(n: number, seed = 0x2545f491, minRound = 64): Uint32Array {
+  if (n <= minRound) return identityOrder(n);
   const random = mulberry32(seed);
   let rounds = 1;
   while ((n >>> rounds) > minRound) rounds++;
@@ -27,6 +29,13 @@ export function brioOrder(curveOrder: Uint32Array, seed = 0x2545f491, minRound =
   }
   for (let r = 1; r <= rounds; r++) start[r] += start[r - 1];
   const out = new Uint32Array(n);
-  for (let i = 0; i < n; i++) out[start[round[i]]++] = curveOrder[i];
+  for (let i = 0; i < n; i++) out[start[round[i]]++] = i;
   return out;
+}
+
+/** 0, 1, ..., n-1. */
+export function identityOrder(n: number): Uint32Array {
+  const ids = new Uint32Array(n);
+  for (let i = 0; i < n; i++) ids[i] = i;
+  return ids;
 }

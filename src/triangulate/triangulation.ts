@@ -4,7 +4,7 @@ import { InputError } from '../core/errors.js';
 import { mergeDuplicates, type SiteSet } from '../core/dedupe.js';
 import { HalfEdgeMesh } from '../mesh/mesh.js';
 import { TriangleStore, GHOST } from './store.js';
-import { brioOrder } from './order.js';
+import { brioOrder, identityOrder } from './order.js';
 
 /** How sites are ordered before insertion. */
 export type InsertionOrder = 'brio' | 'hilbert' | 'input';
@@ -22,12 +22,17 @@ export interface TriangulateOptions {
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
 
-function orderSites(curveOrder: Uint32Array, order: InsertionOrder): Uint32Array {
-  if (order === 'brio') return brioOrder(curveOrder);
-  if (order === 'hilbert') return curveOrder;
-  const ids = new Uint32Array(curveOrder.length);
-  for (let i = 0; i < ids.length; i++) ids[i] = i;
-  return ids;
+/**
+ * The store's numbering of the sites (rank → site) and the order in which
+ * ranks are inserted. Ranks follow the Hilbert curve (but for 'input'), so
+ * that sites near in the plane are near in memory: for the walks and flips
+ * of the build, whatever round BRIO is in, and for every pass over the
+ * triangles after it.
+ */
+function orderSites(curveOrder: Uint32Array, order: InsertionOrder): { siteOfRank: Uint32Array; sequence: Uint32Array } {
+  const n = curveOrder.length;
+  if (order === 'input') return { siteOfRank: identityOrder(n), sequence: identityOrder(n) };
+  return { siteOfRank: curveOrder, sequence: order === 'brio' ? brioOrder(n) : identityOrder(n) };
 }
 
 /** Sites sorted by x, then y: the order of a collinear set along its line. */
@@ -42,8 +47,6 @@ function lexicographic(xy: Float64Array, count: number): Int32Array {
  * {@link triangulate}; grow it with {@link Triangulation.insert}.
  */
 export class Triangulation {
-  /** Distinct sites, interleaved x, y, numbered by first appearance in the input. */
-  siteXY: Float64Array;
   siteCount: number;
   /** For every input point so far, the site it was merged onto. */
   siteOfInput: Int32Array;
@@ -59,10 +62,25 @@ export class Triangulation {
   /** Real triangles, once compacted in front of the ghosts; -1 when stale. */
   private real = -1;
   private vertexEdge: Int32Array | null = null;
+  /**
+   * The store works on ranks, the order in which sites were inserted, with
+   * its own copy of the coordinates in that order: then the triangles a step
+   * reads, and later the neighbours a diagram pass reads, sit together in
+   * memory instead of all over an input-ordered array. Site numbers (order of
+   * first appearance) are mapped at the public boundary.
+   */
+  private rankXY: Float64Array;
+  /** Site of each rank; null when ranks are site numbers. */
+  private siteOfRank: Int32Array | null = null;
+  private rankOfSiteCache: Int32Array | null = null;
+  /** Coordinates by site number, made on first request when ranks differ from sites. */
+  private bySite: Float64Array | null;
+  private sitesCache: Int32Array | null = null;
 
   /** @internal Use {@link triangulate}. */
   constructor(sites: SiteSet, order: InsertionOrder | null) {
-    this.siteXY = sites.xy;
+    this.bySite = sites.xy;
+    this.rankXY = sites.xy;
     this.siteCount = sites.count;
     this.siteOfInput = sites.siteOfInput;
     this.dimension = 0;
@@ -122,6 +140,31 @@ export class Triangulation {
     return tri;
   }
 
+  /** Distinct sites, interleaved x, y, numbered by first appearance in the input. */
+  get siteXY(): Float64Array {
+    if (this.bySite) return this.bySite;
+    const n = this.siteCount, rx = this.rankXY, site = this.siteOfRank!;
+    const xy = new Float64Array(2 * n);
+    for (let r = 0; r < n; r++) {
+      const s = site[r];
+      xy[2 * s] = rx[2 * r];
+      xy[2 * s + 1] = rx[2 * r + 1];
+    }
+    return (this.bySite = xy);
+  }
+
+  private rankOfSite(): Int32Array | null {
+    const site = this.siteOfRank;
+    if (!site || this.rankOfSiteCache) return this.rankOfSiteCache;
+    const rank = new Int32Array(this.siteCount);
+    for (let r = 0; r < this.siteCount; r++) rank[site[r]] = r;
+    return (this.rankOfSiteCache = rank);
+  }
+
+  private siteOf(rank: number): number {
+    return this.siteOfRank ? this.siteOfRank[rank] : rank;
+  }
+
   get inputCount(): number { return this.siteOfInput.length; }
   /** Input points merged onto an earlier equal point. */
   get mergedCount(): number { return this.siteOfInput.length - this.siteCount; }
@@ -133,31 +176,45 @@ export class Triangulation {
   }
 
   /**
-   * Three sites per triangle, counter-clockwise (y-up). A view: it is
-   * valid until the next {@link insert}.
+   * Three sites per triangle, counter-clockwise (y-up). Valid until the
+   * next {@link insert}; do not modify it.
    */
   get triangleSites(): Int32Array {
     if (!this.store) return new Int32Array(0);
     this.compact();
-    return this.store.vert.subarray(0, 3 * this.real);
+    const ranks = this.store.vert.subarray(0, 3 * this.real), site = this.siteOfRank;
+    if (!site) return ranks;
+    if (this.sitesCache) return this.sitesCache;
+    const out = new Int32Array(ranks.length);
+    for (let e = 0; e < out.length; e++) out[e] = site[ranks[e]];
+    return (this.sitesCache = out);
   }
 
-  private build(ord: Uint32Array): void {
+  private build({ siteOfRank, sequence: ord }: { siteOfRank: Uint32Array; sequence: Uint32Array }): void {
     const n = this.siteCount, xy = this.siteXY;
     this.store = null;
     this.path = null;
     this.real = -1;
     this.vertexEdge = null;
+    this.rankXY = xy;
+    this.siteOfRank = null;
+    this.rankOfSiteCache = null;
+    this.sitesCache = null;
     if (n < 3) {
       this.dimension = n === 1 ? 0 : 1;
       this.path = lexicographic(xy, n);
       return;
     }
+    const local = new Float64Array(2 * n);
+    for (let r = 0; r < n; r++) {
+      local[2 * r] = xy[2 * siteOfRank[r]];
+      local[2 * r + 1] = xy[2 * siteOfRank[r] + 1];
+    }
     const a = ord[0], b = ord[1];
     let k = 2;
     let turn = 0;
     for (; k < n; k++) {
-      turn = orient2d(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], xy[2 * ord[k]], xy[2 * ord[k] + 1]);
+      turn = orient2d(local[2 * a], local[2 * a + 1], local[2 * b], local[2 * b + 1], local[2 * ord[k]], local[2 * ord[k] + 1]);
       if (turn !== 0) break;
     }
     if (k === n) {
@@ -166,24 +223,18 @@ export class Triangulation {
       return;
     }
     this.dimension = 2;
-    // Build on a copy of the sites in insertion order, numbered by rank, so that the coordinates each
-    // step reads sit together in memory; the ranks become site numbers again at the end.
-    const local = new Float64Array(2 * n);
-    for (let i = 0; i < n; i++) {
-      local[2 * i] = xy[2 * ord[i]];
-      local[2 * i + 1] = xy[2 * ord[i] + 1];
-    }
     const store = new TriangleStore(local, 2 * n - 2);
     // orient2d < 0 is counter-clockwise (y-up).
-    if (turn < 0) store.init(0, 1, k);
-    else store.init(1, 0, k);
+    if (turn < 0) store.init(a, b, ord[k]);
+    else store.init(b, a, ord[k]);
     for (let i = 2; i < n; i++) {
-      if (i !== k) store.insert(i);
+      if (i !== k) store.insert(ord[i]);
     }
-    const vert = store.vert;
-    for (let e = 0; e < 3 * store.count; e++) if (vert[e] >= 0) vert[e] = ord[vert[e]];
-    store.xy = xy;
     this.store = store;
+    this.rankXY = local;
+    this.siteOfRank = new Int32Array(siteOfRank.buffer, siteOfRank.byteOffset, n);
+    // The site-ordered copy is made again only if asked for: most users never read it.
+    this.bySite = null;
     this.compact();
   }
 
@@ -209,8 +260,10 @@ export class Triangulation {
     }
     this.real = real;
     this.vertexEdge = null;
+    this.sitesCache = null;
   }
 
+  /** A half-edge out of each rank. */
   private edgeOfVertex(): Int32Array {
     if (this.vertexEdge) return this.vertexEdge;
     const store = this.store!;
@@ -225,12 +278,23 @@ export class Triangulation {
    * @internal The implicit layout behind the triangulation: `vert` and
    * `twin` per half-edge, three per triangle; triangles 0..real-1 are real,
    * real..count-1 are ghosts (one per hull edge, holding GHOST = -1).
-   * Views, valid until the next insert. Null when dimension < 2.
+   * `vert` holds ranks: `xy` gives their coordinates, `siteOfRank` their
+   * site numbers (null: the same). Views, valid until the next insert.
+   * Null when dimension < 2.
    */
-  implicitLayout(): { vert: Int32Array; twin: Int32Array; real: number; count: number } | null {
+  implicitLayout(): { vert: Int32Array; twin: Int32Array; real: number; count: number; xy: Float64Array; siteOfRank: Int32Array | null } | null {
     if (!this.store) return null;
     this.compact();
-    return { vert: this.store.vert, twin: this.store.twin, real: this.real, count: this.store.count };
+    return { vert: this.store.vert, twin: this.store.twin, real: this.real, count: this.store.count, xy: this.rankXY, siteOfRank: this.siteOfRank };
+  }
+
+  /**
+   * @internal The sites' coordinates in the store's rank order (a view, do
+   * not modify): for work that does not care which site is which, such as a
+   * bounding box, without making the site-ordered copy.
+   */
+  rankCoordinates(): Float64Array {
+    return this.rankXY.subarray(0, 2 * this.siteCount);
   }
 
   /** @internal The sites in order along their line when dimension < 2. */
@@ -251,7 +315,7 @@ export class Triangulation {
     const start = this.store.realEdgeOfGhost(this.real);
     let re = start;
     do {
-      out.push(v[re]);
+      out.push(this.siteOf(v[re]));
       re = prevOf(tw[prevOf(re)]);
     } while (re !== start && out.length <= this.siteCount);
     const xy = this.siteXY;
@@ -282,7 +346,8 @@ export class Triangulation {
     }
     this.compact();
     const v = this.store.vert, tw = this.store.twin;
-    const e0 = this.edgeOfVertex()[site];
+    const rank = this.rankOfSite();
+    const e0 = this.edgeOfVertex()[rank ? rank[site] : site];
     // Rotate counter-clockwise (e → twin(prev(e))) to the edge towards the ghost, if any.
     let start = e0;
     let e = e0;
@@ -295,7 +360,7 @@ export class Triangulation {
     e = start;
     do {
       const u = v[nextOf(e)];
-      if (u !== GHOST) out.push(u);
+      if (u !== GHOST) out.push(this.siteOf(u));
       e = tw[prevOf(e)];
     } while (e !== start);
     if (!onHull && out.length > 0) {
@@ -323,7 +388,10 @@ export class Triangulation {
     const pairs: number[] = [];
     for (let e = 0; e < len; e++) {
       const a = v[e], b = v[nextOf(e)];
-      if (tw[e] >= len || a < b) pairs.push(Math.min(a, b), Math.max(a, b));
+      if (tw[e] >= len || a < b) {
+        const p = this.siteOf(a), q = this.siteOf(b);
+        pairs.push(Math.min(p, q), Math.max(p, q));
+      }
     }
     return Int32Array.from(pairs);
   }
@@ -351,19 +419,21 @@ export class Triangulation {
       for (let i = 0; i < ord.length; i++) {
         const q = ord[i];
         store.locate(merged.xy[2 * q], merged.xy[2 * q + 1]);
-        existing[q] = store.hitVertex;
+        existing[q] = store.hitVertex < 0 ? -1 : this.siteOf(store.hitVertex);
       }
       let count = old;
       for (let q = 0; q < merged.count; q++) siteOfBatch[q] = existing[q] >= 0 ? existing[q] : count++;
       this.growSites(merged.xy, siteOfBatch, count);
-      store.xy = this.siteXY;
+      store.xy = this.rankXY;
       store.reserve(2 * count - 2);
+      // New sites take the ranks equal to their site numbers, after the old ranks.
       for (let i = 0; i < ord.length; i++) {
         const q = ord[i];
         if (existing[q] < 0) store.insert(siteOfBatch[q]);
       }
       this.real = -1;
       this.vertexEdge = null;
+      this.sitesCache = null;
     } else {
       // Too few or collinear sites: merge against the old ones and build anew.
       const both = new Float64Array(2 * old + merged.xy.length);
@@ -371,9 +441,9 @@ export class Triangulation {
       both.set(merged.xy, 2 * old);
       const all = mergeDuplicates(both);
       for (let q = 0; q < merged.count; q++) siteOfBatch[q] = all.siteOfInput[old + q];
-      this.siteXY = all.xy;
+      this.bySite = all.xy;
       this.siteCount = all.count;
-      this.build(all.curveOrder);
+      this.build(orderSites(all.curveOrder, 'hilbert'));
     }
     for (let i = 0; i < m; i++) result[i] = siteOfBatch[merged.siteOfInput[i]];
     const soi = new Int32Array(this.siteOfInput.length + m);
@@ -383,18 +453,30 @@ export class Triangulation {
     return result;
   }
 
+  /** Appends the batch's new sites (numbers old..count-1, ranks the same) to the rank coordinates. */
   private growSites(batchXY: Float64Array, siteOfBatch: Int32Array, count: number): void {
-    if (count === this.siteCount) return;
+    const old = this.siteCount;
+    if (count === old) return;
     const xy = new Float64Array(2 * count);
-    xy.set(this.siteXY.subarray(0, 2 * this.siteCount));
+    xy.set(this.rankXY.subarray(0, 2 * old));
     for (let q = 0; q < siteOfBatch.length; q++) {
       const s = siteOfBatch[q];
-      if (s >= this.siteCount) {
+      if (s >= old) {
         xy[2 * s] = batchXY[2 * q];
         xy[2 * s + 1] = batchXY[2 * q + 1];
       }
     }
-    this.siteXY = xy;
+    if (this.siteOfRank) {
+      const site = new Int32Array(count);
+      site.set(this.siteOfRank);
+      for (let r = old; r < count; r++) site[r] = r;
+      this.siteOfRank = site;
+      this.bySite = null;
+    } else {
+      this.bySite = xy;
+    }
+    this.rankXY = xy;
+    this.rankOfSiteCache = null;
     this.siteCount = count;
   }
 
@@ -412,7 +494,8 @@ export class Triangulation {
     const v = store.vert, tw = store.twin;
     const origin = new Int32Array(total), twin = new Int32Array(total);
     const next = new Int32Array(total), face = new Int32Array(total);
-    origin.set(v.subarray(0, len));
+    const site = this.siteOfRank;
+    for (let e = 0; e < len; e++) origin[e] = site ? site[v[e]] : v[e];
     for (let e = 0; e < len; e++) {
       next[e] = nextOf(e);
       face[e] = (e / 3) | 0;
@@ -423,7 +506,7 @@ export class Triangulation {
     for (let g = T; g < store.count; g++) {
       const re = store.realEdgeOfGhost(g);
       const H = len + g - T;
-      origin[H] = v[re];
+      origin[H] = this.siteOf(v[re]);
       twin[H] = tw[re];
       face[H] = T;
       // The next outer half-edge starts where this one ends, in the ghost across (target → G).
