@@ -14,7 +14,7 @@
 //   compare(facts, ref, points, input) => string | null   a note on stderr after scipy ran
 // Adding a case is one more object here (plus an OPS entry in scipy_ref.py if scipy can
 // do the same work).
-import { SiteLocator, compareDistance, triangulate, voronoi } from '../dist/index.js';
+import { SiteLocator, balanceTerritories, compareDistance, triangulate, voronoi } from '../dist/index.js';
 import { makeRng } from './distributions.mjs';
 
 /** Number of query points of the `nearest` case, whatever the number of sites. */
@@ -31,6 +31,23 @@ function boundingBox(points) {
     if (y > maxY) maxY = y;
   }
   return { minX, minY, maxX, maxY };
+}
+
+/**
+ * Random weights for the `regular` case: uniform in [0, area / n] of the points' bounding box, the
+ * squared mean spacing, so that a weight can outweigh a neighbour's distance and some sites hide.
+ */
+function weightsSetup(points, seed) {
+  const { minX, minY, maxX, maxY } = boundingBox(points);
+  const n = points.length / 2, scale = ((maxX - minX) * (maxY - minY)) / n;
+  const rng = makeRng(seed + 15485863);
+  return { weights: Float64Array.from({ length: n }, () => scale * rng.next()) };
+}
+
+/** Random target shares in [0.5, 1.5) for the `balance` case, and the points' bounding box as the region. */
+function balanceSetup(points, seed) {
+  const rng = makeRng(seed + 32452843);
+  return { clip: boundingBox(points), shares: Float64Array.from({ length: points.length / 2 }, () => 0.5 + rng.next()) };
 }
 
 /** Query points uniform over the sites' bounding box, seeded apart from the sites themselves. */
@@ -98,6 +115,33 @@ export const cases = [
     size: (d) => d.mesh.faceCount - 1,
   },
   {
+    // The same diagram with the topology from Fortune's sweep line instead of the incremental
+    // triangulation (voronoi's method option); clipping and measures are the shared code.
+    name: 'sweep',
+    setup: (points) => ({ clip: boundingBox(points), method: 'sweep' }),
+    run: (points, input) => voronoi(points, input),
+    scipy: 'voronoi',
+    size: (d) => d.mesh.faceCount - 1,
+  },
+  {
+    // The city-block (L1) diagram, built and clipped to the bounding box as the `voronoi`
+    // case is, so that the ratio between the two rows of one run is the metric's cost.
+    // scipy has no L1 Voronoi diagram to compare with.
+    name: 'metric-l1',
+    setup: (points) => ({ clip: boundingBox(points), metric: 'L1' }),
+    run: (points, input) => voronoi(points, input),
+    scipy: null,
+    size: (d) => d.mesh.faceCount - 1,
+  },
+  {
+    // The chessboard (L-infinity) diagram, likewise.
+    name: 'metric-linf',
+    setup: (points) => ({ clip: boundingBox(points), metric: 'Linf' }),
+    run: (points, input) => voronoi(points, input),
+    scipy: null,
+    size: (d) => d.mesh.faceCount - 1,
+  },
+  {
     // NEAREST_QUERIES query points on n sites: triangulation + locator + batch query.
     // bytesPerPoint counts the locator alone (per site), not the triangulation it was
     // built from nor the answer array (4 bytes per query).
@@ -114,5 +158,31 @@ export const cases = [
     retain: (r) => r.locator,
     keep: (r) => ({ answers: r.answers, siteOfInput: r.siteOfInput, siteXY: r.siteXY }),
     compare: compareNearest,
+  },
+  {
+    // The regular (weighted Delaunay) triangulation with random weights (weightsSetup): compare
+    // with the `triangulate` row of the same run. scipy has no weighted Delaunay (the lifted
+    // convex hull is the reference in tests/reference, not a like-for-like timing).
+    name: 'regular',
+    setup: weightsSetup,
+    run: (points, input) => triangulate(points, input),
+    scipy: null,
+    size: (t) => t.triangleCount,
+  },
+  {
+    // Balanced territories: weights giving every power cell, clipped to the bounding box, a random
+    // target share (balanceSetup) to the default tolerance 1e-6. Meant for n = 1e3 and 1e4
+    // (each iteration builds one or more power diagrams). The iteration count and the error
+    // reached are logged from the untimed warm-up run.
+    name: 'balance',
+    setup: balanceSetup,
+    run: (points, input) => balanceTerritories(points, input),
+    scipy: null,
+    retain: (r) => r.weights,
+    keep: (r) => {
+      process.stderr.write(`balance: ${r.iterations} iterations, max relative error ${r.maxRelativeError.toExponential(2)}, ` +
+        `converged ${r.converged}\n`);
+      return null;
+    },
   },
 ];

@@ -15,8 +15,12 @@ export {
 } from './triangulate/json.js';
 export type { TriangulationPlain } from './triangulate/json.js';
 export { voronoi, VoronoiDiagram } from './diagram/voronoi.js';
-export type { VoronoiOptions, CellNeighbors } from './diagram/voronoi.js';
+export type { VoronoiOptions, VoronoiMethod, CellNeighbors } from './diagram/voronoi.js';
+export { MetricVoronoiDiagram } from './diagram/metric/diagram.js';
+export type { Metric } from './diagram/metric/options.js';
 export { readClipRegion } from './diagram/region.js';
 export type { ClipRegion, RectRegion } from './diagram/region.js';
 export { SiteLocator } from './query/site-locator.js';
 export { compareDistance } from './core/distance.js';
+export { powerTest, comparePowerDistance, MAX_WEIGHT, MIN_WEIGHT } from './core/power.js';
+export { balanceTerritories, type BalanceOptions, type BalanceResult, type BalanceProgress } from './analyze/balance.js';

@@ -5,6 +5,8 @@
  * binary values of the doubles.
  */
 
+import { commonIntegers } from './exact.js';
+
 /** Unit roundoff of binary64, u = 2^-53. */
 const U = 2 ** -53;
 /** 5u, exact as a double. */
@@ -84,34 +86,9 @@ export function compareDistance(qx: number, qy: number, ax: number, ay: number, 
   return compareDistanceExact(qx, qy, ax, ay, bx, by);
 }
 
-// One 8-byte buffer seen as a double and as an unsigned 64-bit integer: the
-// integer view exposes the sign, exponent and fraction bits of the double.
-const F64 = new Float64Array(1);
-const U64 = new BigUint64Array(F64.buffer);
-const FRACTION_MASK = (1n << 52n) - 1n;
-const HIDDEN_BIT = 1n << 52n;
-
-// Scratch for the six decomposed values (mantissa and exponent); the exact
-// path is rare, so plain arrays are fine.
-const mant: bigint[] = [0n, 0n, 0n, 0n, 0n, 0n];
-const expo: number[] = [0, 0, 0, 0, 0, 0];
-
-/** Stores v = mant[i] * 2^expo[i] with mant[i] a signed integer (|mant| < 2^53). */
-function decompose(v: number, i: number): void {
-  F64[0] = v;
-  const bits = U64[0];
-  const biased = Number((bits >> 52n) & 0x7ffn);
-  let m = bits & FRACTION_MASK;
-  let e: number;
-  if (biased === 0) {
-    e = -1074; // zero or subnormal: no hidden bit
-  } else {
-    m |= HIDDEN_BIT;
-    e = biased - 1075;
-  }
-  mant[i] = bits >> 63n ? -m : m;
-  expo[i] = e;
-}
+// Scratch for the six exact integers; the exact path is rare.
+const ints: bigint[] = [0n, 0n, 0n, 0n, 0n, 0n];
+const six = new Float64Array(6);
 
 /**
  * The exact sign, on integers: every coordinate is m * 2^e; shifting all six
@@ -123,14 +100,9 @@ export function compareDistanceExact(qx: number, qy: number, ax: number, ay: num
         Number.isFinite(bx) && Number.isFinite(by))) {
     throw new RangeError('compareDistance needs finite coordinates');
   }
-  decompose(qx, 0); decompose(qy, 1);
-  decompose(ax, 2); decompose(ay, 3);
-  decompose(bx, 4); decompose(by, 5);
-  let e = expo[0];
-  for (let i = 1; i < 6; i++) if (expo[i] < e) e = expo[i];
-  const Qx = mant[0] << BigInt(expo[0] - e), Qy = mant[1] << BigInt(expo[1] - e);
-  const Ax = mant[2] << BigInt(expo[2] - e), Ay = mant[3] << BigInt(expo[3] - e);
-  const Bx = mant[4] << BigInt(expo[4] - e), By = mant[5] << BigInt(expo[5] - e);
+  six[0] = qx; six[1] = qy; six[2] = ax; six[3] = ay; six[4] = bx; six[5] = by;
+  commonIntegers(six, ints);
+  const [Qx, Qy, Ax, Ay, Bx, By] = ints;
   const D = (Bx - Ax) * (2n * Qx - Ax - Bx) + (By - Ay) * (2n * Qy - Ay - By);
   return D > 0n ? 1 : D < 0n ? -1 : 0;
 }

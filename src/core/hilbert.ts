@@ -46,7 +46,7 @@ export function hilbertIndex(x: number, y: number): number {
 }
 
 /** Stable LSD radix sort of `ids` by 32-bit `keys`, in two 16-bit passes; sorts both. */
-function radixSort(ids: Uint32Array, keys: Uint32Array): { ids: Uint32Array; keys: Uint32Array } {
+export function radixSort(ids: Uint32Array, keys: Uint32Array): { ids: Uint32Array; keys: Uint32Array } {
   const n = ids.length;
   let srcIds: Uint32Array = ids, srcKeys: Uint32Array = keys;
   let dstIds: Uint32Array = new Uint32Array(n), dstKeys: Uint32Array = new Uint32Array(n);

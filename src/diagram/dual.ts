@@ -1,5 +1,6 @@
 import { incircle, orient2d } from 'robust-predicates';
-import { InputError } from '../core/errors.js';
+import { AmbitError, InputError } from '../core/errors.js';
+import { comparePowerDistance, powerTest } from '../core/power.js';
 import { HalfEdgeMesh } from '../mesh/mesh.js';
 import type { Triangulation } from '../triangulate/triangulation.js';
 import { ConvexRegion, SNAP_ULPS } from './clip.js';
@@ -50,17 +51,28 @@ class Points {
  */
 export function clippedVoronoi(tri: Triangulation, regionXY: Float64Array): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
   const b = new DiagramBuilder(tri, new ConvexRegion(regionXY));
-  b.buildEdges();
-  b.buildRing();
-  b.assignOwners();
-  b.linkBoundary();
-  return b.compact();
+  try {
+    b.buildEdges();
+    b.buildRing();
+    b.assignOwners();
+    b.linkBoundary();
+    return b.compact();
+  } catch (err) {
+    // Unweighted cells always have room (MIN_SPACING); power cells can be thinner than rounding, and
+    // then the floating clip decisions around them disagree before any single cell looks flat.
+    if (b.weights === null || err instanceof AmbitError) throw err;
+    throw new InputError('too-thin',
+      'a power cell is thinner than double precision can draw: some weight leaves its site within rounding of being hidden',
+      -1, 'weights');
+  }
 }
 
 class DiagramBuilder {
   readonly region: ConvexRegion;
   readonly sites: Float64Array;
   readonly siteOfRank: Int32Array | null;
+  /** Weights in rank order for a power diagram, else null. */
+  readonly weights: Float64Array | null;
   readonly n: number;
   readonly tri: Triangulation;
   readonly points = new Points();
@@ -104,6 +116,7 @@ class DiagramBuilder {
     // mapped to site numbers at the end.
     this.sites = tri.implicitLayout()?.xy ?? tri.siteXY;
     this.siteOfRank = tri.implicitLayout()?.siteOfRank ?? null;
+    this.weights = tri.rankWeights();
     this.n = tri.siteCount;
     this.sideEvents = Array.from({ length: region.count }, () => []);
     this.nearLimit = 4 * (region.radius + 1);
@@ -148,7 +161,10 @@ class DiagramBuilder {
   private clipBisector(a: number, b: number, A: number, B: number): boolean {
     const P = this.points.xy, sites = this.sites, region = this.region;
     const ax = sites[2 * a], ay = sites[2 * a + 1], bx = sites[2 * b], by = sites[2 * b + 1];
-    const mx = ax + (bx - ax) / 2, my = ay + (by - ay) / 2;
+    // The bisector crosses a→b at its middle; with weights, at the radical point, shifted towards the lighter site.
+    const w = this.weights;
+    const along = w === null ? 0.5 : 0.5 + (w[a] - w[b]) / (2 * ((bx - ax) ** 2 + (by - ay) ** 2));
+    const mx = ax + (bx - ax) * along, my = ay + (by - ay) * along;
     const len = Math.hypot(bx - ax, by - ay), ux = -(by - ay) / len, uy = (bx - ax) / len;
     const nearA = this.isNear(A), nearB = this.isNear(B);
     let sx: number, sy: number, ex: number, ey: number;
@@ -231,21 +247,27 @@ class DiagramBuilder {
     const error = new Float64Array(T);
     const inside = (this.inside = new Uint8Array(T));
     const cocircular: number[] = [];
+    const w = this.weights;
+    // Weights add two roundings to each squared length (the weight difference and its subtraction).
+    const lengthErr = w === null ? 7 * eps : 9 * eps;
     for (let t = 0; t < T; t++) {
       const a = vert[3 * t], b = vert[3 * t + 1], c = vert[3 * t + 2];
       const ax = sites[2 * a], ay = sites[2 * a + 1];
       const bx = sites[2 * b] - ax, by = sites[2 * b + 1] - ay;
       const cx = sites[2 * c] - ax, cy = sites[2 * c + 1] - ay;
       const d = -2 * orient2d(ax, ay, sites[2 * b], sites[2 * b + 1], sites[2 * c], sites[2 * c + 1]);
-      const bl = bx * bx + by * by, cl = cx * cx + cy * cy;
+      // With weights the centre is the power centre: equal power to all three corners.
+      const wb = w === null ? 0 : w[b] - w[a], wc = w === null ? 0 : w[c] - w[a];
+      const bl = bx * bx + by * by - wb, cl = cx * cx + cy * cy - wc;
+      const blMag = bx * bx + by * by + Math.abs(wb), clMag = cx * cx + cy * cy + Math.abs(wc);
       const ux = (cy * bl - by * cl) / d, uy = (bx * cl - cx * bl) / d;
-      const shortest = Math.min(bl, cl, (cx - bx) ** 2 + (cy - by) ** 2);
+      const shortest = Math.min(bx * bx + by * by, cx * cx + cy * cy, (cx - bx) ** 2 + (cy - by) ** 2);
       if (shortest < this.closest) { this.closest = shortest; this.closestTriangle = t; }
       const X = ax + ux, Y = ay + uy;
       const ad = Math.abs(d);
       const rel = (8 * eps * (Math.abs(bx * cy) + Math.abs(by * cx))) / ad;
-      const ex = (7 * eps * (Math.abs(cy) * bl + Math.abs(by) * cl)) / ad + Math.abs(ux) * (rel + 2 * eps) + eps * Math.abs(X);
-      const ey = (7 * eps * (Math.abs(bx) * cl + Math.abs(cx) * bl)) / ad + Math.abs(uy) * (rel + 2 * eps) + eps * Math.abs(Y);
+      const ex = (lengthErr * (Math.abs(cy) * blMag + Math.abs(by) * clMag)) / ad + Math.abs(ux) * (rel + 2 * eps) + eps * Math.abs(X);
+      const ey = (lengthErr * (Math.abs(bx) * clMag + Math.abs(cx) * blMag)) / ad + Math.abs(uy) * (rel + 2 * eps) + eps * Math.abs(Y);
       P[2 * t] = X;
       P[2 * t + 1] = Y;
       const err = (error[t] = 4 * Math.max(ex, ey));
@@ -267,8 +289,10 @@ class DiagramBuilder {
         // Centres that round to the very same point are one vertex too, else their edge would have length zero.
         if (dx !== 0 || dy !== 0) {
           const p = vert[prevOf(y)];
-          if (incircle(ax, ay, sites[2 * b], sites[2 * b + 1], sites[2 * c], sites[2 * c + 1],
-            sites[2 * p], sites[2 * p + 1]) !== 0) continue;
+          if ((w === null
+            ? incircle(ax, ay, sites[2 * b], sites[2 * b + 1], sites[2 * c], sites[2 * c + 1], sites[2 * p], sites[2 * p + 1])
+            : powerTest(ax, ay, w[a], sites[2 * b], sites[2 * b + 1], w[b], sites[2 * c], sites[2 * c + 1], w[c],
+              sites[2 * p], sites[2 * p + 1], w[p])) !== 0) continue;
         }
         cocircular.push(t, u);
       }
@@ -390,6 +414,7 @@ class DiagramBuilder {
       if (d < shortest) { shortest = d; at = i; }
     }
     this.checkSpacing(shortest, () => [Math.min(path[at], path[at + 1]), Math.max(path[at], path[at + 1])]);
+    if (this.weights !== null && lines > 1) this.checkStrips(path);
     this.allocate(2 * lines);
     const { origin, twin, face } = this;
     for (let i = 0; i < lines; i++) {
@@ -400,6 +425,30 @@ class DiagramBuilder {
       origin[2 * i] = this.clipStart;
       origin[2 * i + 1] = this.clipEnd;
       this.touching.push(2 * i);
+    }
+  }
+
+  /**
+   * With weights the parallel lines between collinear sites sit at radical
+   * points, not midpoints: each inner site's strip must keep a width that
+   * double precision can place (MIN_SPACING of the largest coordinate, as
+   * for sites), else the diagram is refused naming that site.
+   */
+  private checkStrips(path: Int32Array): void {
+    const P = this.sites, w = this.weights!, first = path[0], last = path[path.length - 1];
+    const ox = P[2 * first], oy = P[2 * first + 1];
+    const len = Math.hypot(P[2 * last] - ox, P[2 * last + 1] - oy), ux = (P[2 * last] - ox) / len, uy = (P[2 * last + 1] - oy) / len;
+    let magnitude = this.region.size;
+    for (let i = 0; i < this.region.xy.length; i++) magnitude = Math.max(magnitude, Math.abs(this.region.xy[i]));
+    for (let i = 0; i < 2 * this.n; i++) magnitude = Math.max(magnitude, Math.abs(P[i]));
+    let before = -Infinity;
+    for (let i = 0; i + 1 < path.length; i++) {
+      const a = path[i], b = path[i + 1];
+      const dx = P[2 * b] - P[2 * a], dy = P[2 * b + 1] - P[2 * a + 1];
+      const along = 0.5 + (w[a] - w[b]) / (2 * (dx * dx + dy * dy));
+      const at = (P[2 * a] + along * dx - ox) * ux + (P[2 * a + 1] + along * dy - oy) * uy;
+      if (i > 0 && !(at - before > MIN_SPACING * magnitude)) refuseUndrawable(this.siteOf(a), 0);
+      before = at;
     }
   }
 
@@ -470,6 +519,24 @@ class DiagramBuilder {
     }
   }
 
+  /**
+   * The rank of the site nearest to (x, y) (least power distance with
+   * weights) among those with a cell, exactly; ties to the smallest site
+   * number. Brute force: used once, when one cell covers the whole region.
+   */
+  private nearestBrute(x: number, y: number): number {
+    const P = this.sites, w = this.weights, hidden = new Set<number>();
+    for (const s of this.tri.hiddenSites) hidden.add(s);
+    let best = -1;
+    for (let r = 0; r < this.n; r++) {
+      if (hidden.has(this.siteOf(r))) continue;
+      if (best < 0) { best = r; continue; }
+      const c = comparePowerDistance(x, y, P[2 * r], P[2 * r + 1], w ? w[r] : 0, P[2 * best], P[2 * best + 1], w ? w[best] : 0);
+      if (c < 0 || (c === 0 && this.siteOf(r) < this.siteOf(best))) best = r;
+    }
+    return best;
+  }
+
   /** Each stretch of boundary belongs to the cell on the left of the edge arriving at its start. */
   assignOwners(): void {
     const { ring, origin, twin, face } = this, P = this.points.xy;
@@ -505,7 +572,7 @@ class DiagramBuilder {
     let start = owner.findIndex((o) => o >= 0);
     if (start < 0) {
       // No edge reaches into the region: one cell covers it all, the cell of any interior point.
-      owner[0] = this.siteOf(nearestSiteBrute(this.sites, this.n, this.region.cx, this.region.cy));
+      owner[0] = this.siteOf(this.nearestBrute(this.region.cx, this.region.cy));
       start = 0;
     }
     for (let k = 1; k < R; k++) {
@@ -543,6 +610,25 @@ class DiagramBuilder {
       const list = this.outgoing.get(fOrigin[fTwin[x]]);
       if (list) for (const y of list) if (fFace[y] === fFace[x]) { fNext[x] = y; break; }
       if (fNext[x] < 0) throw new Error(`ambit: internal error, no successor for half-edge ${x} of cell ${fFace[x]}`);
+    }
+  }
+
+  /** Every cell of a power diagram has positive area as drawn (shoelace, relative to its first corner). */
+  private checkDrawable(xy: Float64Array, origin: Int32Array, next: Int32Array, faceEdge: Int32Array): void {
+    for (let s = 0; s < this.n; s++) {
+      const first = faceEdge[s];
+      if (first < 0) continue;
+      const x0 = xy[2 * origin[first]], y0 = xy[2 * origin[first] + 1];
+      let area = 0, magnitude = 0, e = next[first];
+      for (let guard = 0; next[e] !== first && guard < origin.length; guard++) {
+        const a = origin[e], b = origin[next[e]];
+        const p = (xy[2 * a] - x0) * (xy[2 * b + 1] - y0), q = (xy[2 * b] - x0) * (xy[2 * a + 1] - y0);
+        area += p - q;
+        magnitude += Math.abs(p) + Math.abs(q);
+        e = next[e];
+      }
+      // Positive beyond its own rounding, so that any way of summing it (a validator's, say) agrees.
+      if (!(area > 16 * Number.EPSILON * magnitude)) refuseUndrawable(s, area / 2);
     }
   }
 
@@ -609,6 +695,7 @@ class DiagramBuilder {
     }
     const faceOfSite = new Int32Array(n);
     for (let s = 0; s < n; s++) faceOfSite[s] = faceEdge[s] >= 0 ? s : -1;
+    if (this.weights !== null) this.checkDrawable(vertexXY, origin, next, faceEdge);
     // Views keep the buffers alive; copy only when much of them would be wasted.
     const tight = (a: Int32Array): Int32Array => (E < 0.9 * (a.buffer.byteLength >> 2) ? a.slice() : a);
     const mesh = new HalfEdgeMesh({
@@ -619,18 +706,21 @@ class DiagramBuilder {
   }
 }
 
+/**
+ * Power cells have no floor on their size: a site whose lifted point lies a
+ * hair below the lower hull (weights within an ulp of hiding it) has a cell
+ * thinner than the rounding of its corners. Such a cell cannot be drawn
+ * with positive area, so the diagram is refused, naming the site, as sites
+ * too close together are, rather than returned wrong.
+ */
+function refuseUndrawable(site: number, area: number): never {
+  throw new InputError('too-thin',
+    `the power cell of site ${site} is thinner than double precision can draw (area ${area}): its weight leaves it within rounding of being hidden`,
+    site, 'weights');
+}
+
 function listAt(map: Map<number, number[]>, id: number): number[] {
   let l = map.get(id);
   if (!l) { l = []; map.set(id, l); }
   return l;
-}
-
-/** The site nearest to (x, y) by brute force; ties to the smallest index. Used once, when one cell covers the region. */
-function nearestSiteBrute(sites: Float64Array, n: number, x: number, y: number): number {
-  let best = 0, bestD = Infinity;
-  for (let s = 0; s < n; s++) {
-    const d = (sites[2 * s] - x) ** 2 + (sites[2 * s + 1] - y) ** 2;
-    if (d < bestD) { bestD = d; best = s; }
-  }
-  return best;
 }

@@ -1,5 +1,6 @@
 import { AmbitError } from '../core/errors.js';
 import { inCircle, orient } from '../core/predicates.js';
+import { powerTest } from '../core/power.js';
 import type { HalfEdgeMesh } from './mesh.js';
 
 /**
@@ -8,7 +9,15 @@ import type { HalfEdgeMesh } from './mesh.js';
  * in O(triangles * vertices), no vertex strictly inside any circumcircle;
  * false: none.
  */
-export interface MeshCheckOptions { delaunay?: 'local' | 'global' | false }
+export interface MeshCheckOptions {
+  delaunay?: 'local' | 'global' | false;
+  /**
+   * Weights per vertex, for a regular (weighted Delaunay) triangulation: the
+   * empty-circle tests become the exact power test, and vertices with no
+   * half-edge are accepted as hidden sites ('global' checks that each is).
+   */
+  weights?: ArrayLike<number>;
+}
 
 export interface MeshCheckResult { ok: boolean; problems: string[] }
 
@@ -74,9 +83,14 @@ export function checkMesh(mesh: HalfEdgeMesh, options: MeshCheckOptions = {}): M
   // A Voronoi mesh has a face per site; a site whose cell misses the region has an empty one.
   const emptyFaces = kind === 'voronoi';
   if (!checkShape(arrays, m.outerFace, emptyFaces, p)) return p.result();
+  const w = options.weights ?? null;
+  if (w !== null && (kind !== 'delaunay' || !isArrayLike(w) || w.length !== arrays.xy.length >> 1)) {
+    p.add(`weights must be one number per vertex of a 'delaunay' mesh`);
+    return p.result();
+  }
   const s: Shape = {
     ...arrays, outer: m.outerFace as number,
-    V: arrays.xy.length >> 1, H: arrays.origin.length, F: arrays.faceEdge.length, emptyFaces,
+    V: arrays.xy.length >> 1, H: arrays.origin.length, F: arrays.faceEdge.length, emptyFaces, w,
   };
   if (!checkPairs(s, p)) return p.result();
   const cycles = checkCycles(s, p);
@@ -102,10 +116,12 @@ interface Shape {
   outer: number; V: number; H: number; F: number;
   /** Bounded faces may be empty (faceEdge -1, no half-edges): a Voronoi cell outside the region. */
   emptyFaces: boolean;
+  /** Vertex weights of a regular triangulation, or null. */
+  w: Ints | null;
 }
 
 /** Stage 1: lengths, finite coordinates, every index in range. */
-function checkShape(a: Omit<Shape, 'outer' | 'V' | 'H' | 'F' | 'emptyFaces'>, outer: unknown, emptyFaces: boolean, p: Problems): boolean {
+function checkShape(a: Omit<Shape, 'outer' | 'V' | 'H' | 'F' | 'emptyFaces' | 'w'>, outer: unknown, emptyFaces: boolean, p: Problems): boolean {
   const { xy, origin, twin, next, face, faceEdge, faceSite } = a;
   const H = origin.length;
   const F = faceEdge.length;
@@ -236,8 +252,14 @@ function checkCycles(s: Shape, p: Problems): Cycles | null {
       fan[v] = e;
     }
   }
+  // Hidden sites of a regular triangulation are vertices without edges; they take no part below.
+  let isolated = 0;
   if (H > 0) {
-    for (let v = 0; v < V && !p.full; v++) if (fan[v] < 0) p.add(`vertex ${v} is the origin of no half-edge`);
+    for (let v = 0; v < V && !p.full; v++) {
+      if (fan[v] >= 0) continue;
+      if (s.w !== null) isolated++;
+      else p.add(`vertex ${v} is the origin of no half-edge`);
+    }
   }
 
   // Union-find over the edges; halving keeps the finds short without recursion.
@@ -247,7 +269,7 @@ function checkCycles(s: Shape, p: Problems): Cycles | null {
     while (parent[v] !== v) { parent[v] = parent[parent[v]]; v = parent[v]; }
     return v;
   };
-  let components = V;
+  let components = V - isolated;
   for (let e = 0; e < H; e++) {
     const a = find(origin[e]);
     const b = find(origin[twin[e]]);
@@ -255,8 +277,8 @@ function checkCycles(s: Shape, p: Problems): Cycles | null {
   }
   if (components > 1) p.add(`mesh is not connected: ${components} components`);
   // Empty faces (cells outside the region) are not faces of the surface.
-  const euler = V - H / 2 + (F - empty);
-  if (euler !== 2) p.add(`Euler's relation fails: V - E + F = ${V} - ${H / 2} + ${F - empty} = ${euler}, expected 2`);
+  const euler = V - isolated - H / 2 + (F - empty);
+  if (euler !== 2) p.add(`Euler's relation fails: V - E + F = ${V - isolated} - ${H / 2} + ${F - empty} = ${euler}, expected 2`);
   return p.count === 0 ? { start, length } : null;
 }
 
@@ -377,8 +399,12 @@ function checkTriangulation(s: Shape, c: Cycles, p: Problems): void {
       p.add(`Delaunay mesh has no triangles but vertex ${v} is off the line through vertices ${a} and ${b}`);
     }
   }
+  // Hidden sites (weights, no edges) may lie between joined neighbours: rank only the vertices in use.
+  const used = new Uint8Array(V);
+  for (let e = 0; e < H; e++) used[origin[e]] = 1;
   const rank = new Int32Array(V);
-  for (let i = 0; i < V; i++) rank[order[i]] = i;
+  let r = 0;
+  for (let i = 0; i < V; i++) if (s.w === null || used[order[i]]) rank[order[i]] = r++;
   for (let e = 0; e < H && !p.full; e++) {
     const u = origin[e];
     const w = origin[twin[e]];
@@ -401,8 +427,10 @@ function checkLocalDelaunay(s: Shape, c: Cycles, p: Problems): void {
     const b = origin[t];
     const cv = origin[next[next[e]]];
     const d = origin[next[next[t]]];
-    if (inCircle(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], xy[2 * cv], xy[2 * cv + 1], xy[2 * d], xy[2 * d + 1]) > 0) {
-      p.add(`edge ${a}-${b} (half-edge ${e}) is not locally Delaunay: vertex ${d} lies inside the circumcircle of ${circleLabel(s, c, f)}`);
+    if (conflicts(s, a, b, cv, d)) {
+      p.add(s.w === null
+        ? `edge ${a}-${b} (half-edge ${e}) is not locally Delaunay: vertex ${d} lies inside the circumcircle of ${circleLabel(s, c, f)}`
+        : `edge ${a}-${b} (half-edge ${e}) is not locally regular: vertex ${d} lifts below the plane of ${circleLabel(s, c, f)}`);
     }
   }
 }
@@ -416,12 +444,21 @@ function checkGlobalDelaunay(s: Shape, c: Cycles, p: Problems): void {
     const a = origin[e];
     const b = origin[next[e]];
     const cv = origin[next[next[e]]];
-    const ax = xy[2 * a], ay = xy[2 * a + 1], bx = xy[2 * b], by = xy[2 * b + 1], cx = xy[2 * cv], cy = xy[2 * cv + 1];
     for (let v = 0; v < V && !p.full; v++) {
       if (v === a || v === b || v === cv) continue;
-      if (inCircle(ax, ay, bx, by, cx, cy, xy[2 * v], xy[2 * v + 1]) > 0) {
-        p.add(`vertex ${v} lies strictly inside the circumcircle of ${circleLabel(s, c, f)}`);
+      if (conflicts(s, a, b, cv, v)) {
+        p.add(s.w === null
+          ? `vertex ${v} lies strictly inside the circumcircle of ${circleLabel(s, c, f)}`
+          : `vertex ${v} lifts strictly below the plane of ${circleLabel(s, c, f)}`);
       }
     }
   }
+}
+
+/** d strictly inside the circumcircle of counter-clockwise a, b, c; with weights, lifted strictly below their plane. */
+function conflicts(s: Shape, a: number, b: number, c: number, d: number): boolean {
+  const { xy, w } = s;
+  if (w === null) return inCircle(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], xy[2 * c], xy[2 * c + 1], xy[2 * d], xy[2 * d + 1]) > 0;
+  return powerTest(xy[2 * a], xy[2 * a + 1], w[a], xy[2 * b], xy[2 * b + 1], w[b], xy[2 * c], xy[2 * c + 1], w[c],
+    xy[2 * d], xy[2 * d + 1], w[d]) > 0;
 }

@@ -1,5 +1,6 @@
 import TinyQueue from 'tinyqueue';
 import { compareDistance, compareDistanceExact, squaredDistance } from '../core/distance.js';
+import { comparePowerDistance, comparePowerDistanceExact } from '../core/power.js';
 import { InputError } from '../core/errors.js';
 import { hilbertSort } from '../core/hilbert.js';
 import { MAX_COORDINATE } from '../core/limits.js';
@@ -23,6 +24,14 @@ import { boundingBox } from '../core/bounds.js';
  * the tied sites are connected among themselves and a search through exact
  * ties from any one of them finds the smallest index.
  *
+ * With weights, "nearest" means the least power distance |q - s|^2 - w
+ * and the graph is the regular triangulation. The same descent works: a
+ * site's power cell is cut out by its neighbours' half-planes alone, so a
+ * point outside it has a neighbour strictly nearer. Tied sites have lifted
+ * points on one face of the lower hull, joined by that face's edges.
+ * Hidden sites (no cell) are never answered; among exact ties the smallest
+ * site index with a cell wins.
+ *
  * The locator is a snapshot: sites inserted into the triangulation later
  * are not seen; build a new locator then.
  */
@@ -37,6 +46,8 @@ export class SiteLocator {
    */
   private readonly site: Int32Array;
   private readonly xy: Float64Array;
+  /** Weights by internal index, or null. */
+  private readonly w: Float64Array | null;
   /** CSR adjacency of the Delaunay graph: neighbours of i are adj[off[i]..off[i+1]). */
   private readonly off: Int32Array;
   private readonly adj: Int32Array;
@@ -64,12 +75,15 @@ export class SiteLocator {
     const site = Int32Array.from(hilbertSort(src).ids);
     const index = new Int32Array(n);
     const xy = new Float64Array(2 * n);
+    const weights = tri.weights, w = weights ? new Float64Array(n) : null;
     for (let i = 0; i < n; i++) {
       const s = site[i];
       index[s] = i;
       xy[2 * i] = src[2 * s];
       xy[2 * i + 1] = src[2 * s + 1];
+      if (w) w[i] = weights![s];
     }
+    this.w = w;
     const edges = tri.edges();
     const off = new Int32Array(n + 1);
     for (let e = 0; e < edges.length; e++) off[index[edges[e]] + 1]++;
@@ -85,6 +99,8 @@ export class SiteLocator {
     this.xy = xy;
     this.off = off;
     this.adj = adj;
+    // Hidden sites have no edges: never start a walk there.
+    if (n > 1) while (off[this.last + 1] === off[this.last]) this.last++;
   }
 
   /** The nearest site to (x, y); among exactly tied sites the smallest index. */
@@ -152,6 +168,7 @@ export class SiteLocator {
     this.last = first;
     const site = this.site;
     if (k === 1) return Int32Array.of(site[first]);
+    if (this.w) return this.kNearestByPower(x, y, k);
 
     const xy = this.xy, off = this.off, adj = this.adj;
     const mark = this.marks();
@@ -194,10 +211,28 @@ export class SiteLocator {
   }
 
   /**
+   * The k least power distances, by brute force: hidden sites count here
+   * (they are near, they just own no area), and the sites with power
+   * distance below a bound need not be connected in the regular
+   * triangulation, so no graph search is safe. O(n) per query.
+   */
+  private kNearestByPower(x: number, y: number, k: number): Int32Array {
+    const xy = this.xy, w = this.w!, site = this.site, n = this.siteCount;
+    const order = Array.from({ length: n }, (_, i) => i);
+    const key = new Float64Array(n);
+    for (let i = 0; i < n; i++) key[i] = squaredDistance(x, y, xy[2 * i], xy[2 * i + 1]) - w[i];
+    const exact = (a: number, b: number): number =>
+      Math.sign(comparePowerDistance(x, y, xy[2 * a], xy[2 * a + 1], w[a], xy[2 * b], xy[2 * b + 1], w[b])) || site[a] - site[b];
+    order.sort((a, b) => exact(a, b));
+    return Int32Array.from(order.slice(0, k), (i) => site[i]);
+  }
+
+  /**
    * Strict descent from `start`, then the smallest index among the exactly
    * tied nearest sites. Allocation-free except for the rare exact fallback.
    */
   private walk(start: number, x: number, y: number): number {
+    if (this.w) return this.walkByPower(start, x, y);
     const xy = this.xy, off = this.off, adj = this.adj;
     let cur = start;
     let cd = squaredDistance(x, y, xy[2 * cur], xy[2 * cur + 1]);
@@ -228,6 +263,23 @@ export class SiteLocator {
     }
   }
 
+  /** walk() for weighted sites: the same descent by exact power distance. */
+  private walkByPower(start: number, x: number, y: number): number {
+    const xy = this.xy, w = this.w!, off = this.off, adj = this.adj;
+    let cur = start;
+    for (;;) {
+      let best = cur, tie = false;
+      for (let j = off[cur], end = off[cur + 1]; j < end; j++) {
+        const nb = adj[j];
+        const sign = comparePowerDistance(x, y, xy[2 * nb], xy[2 * nb + 1], w[nb], xy[2 * best], xy[2 * best + 1], w[best]);
+        if (sign < 0) best = nb;
+        else if (sign === 0) tie = true;
+      }
+      if (best === cur) return tie ? this.smallestTied(cur, x, y) : cur;
+      cur = best;
+    }
+  }
+
   /**
    * Among the sites exactly as far from (x, y) as internal index `from` (a
    * nearest site), the internal index of the one with the smallest site number.
@@ -246,7 +298,9 @@ export class SiteLocator {
       for (let j = off[s], end = off[s + 1]; j < end; j++) {
         const nb = adj[j];
         if (mark[nb] === tag) continue;
-        if (compareDistance(x, y, xy[2 * nb], xy[2 * nb + 1], sx, sy) !== 0) continue;
+        const w = this.w;
+        if ((w ? comparePowerDistance(x, y, xy[2 * nb], xy[2 * nb + 1], w[nb], sx, sy, w[from])
+          : compareDistance(x, y, xy[2 * nb], xy[2 * nb + 1], sx, sy)) !== 0) continue;
         mark[nb] = tag;
         stack[top++] = nb;
         if (site[nb] < site[smallest]) smallest = nb;
@@ -294,6 +348,7 @@ export class SiteLocator {
     const ny = Math.min(target, Math.max(1, Math.ceil(h * inv)));
     const grid = new Int32Array(nx * ny).fill(-1);
     for (let s = 0; s < n; s++) {
+      if (n > 1 && this.off[s + 1] === this.off[s]) continue; // hidden: no cell, no edges
       const cx = Math.min(nx - 1, Math.floor((xy[2 * s] - minX) * inv));
       const cy = Math.min(ny - 1, Math.floor((xy[2 * s + 1] - minY) * inv));
       grid[cy * nx + cx] = s;

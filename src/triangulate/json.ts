@@ -1,4 +1,4 @@
-import { FormatError } from '../core/errors.js';
+import { FormatError, InputError } from '../core/errors.js';
 import { parseJSONInput } from '../core/untrusted.js';
 import { orient } from '../core/predicates.js';
 import { meshToPlain, readMeshJSON, type MeshPlain } from '../mesh/json.js';
@@ -20,6 +20,10 @@ export interface TriangulationPlain {
 
 /** Serialises a triangulation: its mesh plus the map from input points to sites. */
 export function writeTriangulationJSON(tri: Triangulation): string {
+  if (tri.weights !== null) {
+    // Version 1 has no place for weights; writing the mesh alone would lose them and read back wrong.
+    throw new InputError('bad-option', 'a weighted triangulation has no JSON form in version 1: keep its points and weights instead', -1, 'weights');
+  }
   const plain: TriangulationPlain = {
     format: TRIANGULATION_FORMAT,
     version: TRIANGULATION_FORMAT_VERSION,

@@ -1,4 +1,5 @@
 import { orient2d, incircle } from 'robust-predicates';
+import { liftedAboveChord, powerTest, powerTestOf } from '../core/power.js';
 
 /**
  * The vertex every hull edge is joined to, closing the triangulation into a
@@ -6,6 +7,9 @@ import { orient2d, incircle } from 'robust-predicates';
  * a point outside the hull lands in a ghost, and every half-edge has a twin.
  */
 export const GHOST = -1;
+
+/** Marks the three slots of a triangle freed by a vertex removal (weighted build only). */
+export const DEAD = -2;
 
 // Half-edges 3t, 3t+1, 3t+2 belong to triangle t, in counter-clockwise order.
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
@@ -22,6 +26,25 @@ const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
  */
 export class TriangleStore {
   xy: Float64Array;
+  /** Weights by vertex for a regular triangulation; null for Delaunay. */
+  w: Float64Array | null = null;
+  /** x, y, weight per vertex side by side, for the power tests of a weighted build. */
+  private xyw: Float64Array = new Float64Array(0);
+
+  /** Makes the build weighted (w by vertex, as xy). */
+  setWeights(w: Float64Array): void {
+    this.w = w;
+    const n = w.length, xy = this.xy, xyw = (this.xyw = new Float64Array(3 * n));
+    for (let i = 0; i < n; i++) {
+      xyw[3 * i] = xy[2 * i];
+      xyw[3 * i + 1] = xy[2 * i + 1];
+      xyw[3 * i + 2] = w[i];
+    }
+  }
+  /** Vertices removed because a later site made them redundant (weighted build only). */
+  readonly removed: number[] = [];
+  /** Freed triangle slots, reused by later splits. */
+  private free: number[] = [];
   vert: Int32Array;
   twin: Int32Array;
   /** Triangles in use, ghosts included. */
@@ -51,6 +74,11 @@ export class TriangleStore {
   isGhost(t: number): boolean {
     const v = this.vert;
     return v[3 * t] < 0 || v[3 * t + 1] < 0 || v[3 * t + 2] < 0;
+  }
+
+  /** Two triangle slots for a split: freed ones first, else new ones at the end. */
+  private take(): number {
+    return this.free.length > 0 ? this.free.pop()! : this.count++;
   }
 
   private link(a: number, b: number): void {
@@ -175,15 +203,67 @@ export class TriangleStore {
    * s coincides with, or -1 once s is in.
    */
   insert(s: number): number {
-    const xy = this.xy;
+    const xy = this.xy, w = this.w;
     const px = xy[2 * s], py = xy[2 * s + 1];
     const t = this.locate(px, py);
     if (this.hitVertex >= 0) return this.hitVertex;
     if (this.isGhost(t)) this.extendHull(t, s);
-    else if (this.hitEdge >= 0) this.splitEdge(this.hitEdge, s);
-    else this.splitTriangle(t, s);
-    this.legalize();
+    else {
+      if (w !== null) {
+        // Lifted on or above the plane of the triangle holding it (on an edge: above the lifted
+        // edge, which the plane contains): the lower hull does not change, s is redundant.
+        const a = this.vert[3 * t], b = this.vert[3 * t + 1], c = this.vert[3 * t + 2];
+        if (powerTest(xy[2 * a], xy[2 * a + 1], w[a], xy[2 * b], xy[2 * b + 1], w[b],
+          xy[2 * c], xy[2 * c + 1], w[c], px, py, w[s]) <= 0) {
+          this.removed.push(s);
+          return -1;
+        }
+      }
+      if (this.hitEdge >= 0) this.splitEdge(this.hitEdge, s);
+      else this.splitTriangle(t, s);
+    }
+    if (w === null) this.legalize();
+    else {
+      this.legalizeWeighted();
+      if (this.newGhost >= 0 && this.vert[this.newGhost] === s && this.vert[this.newGhost + 2] === GHOST) this.pruneFlatHull(s, this.newGhost);
+    }
+    this.newGhost = -1;
     return -1;
+  }
+
+  /** Set by extendHull: the half-edge s→(next hull vertex) of the new site's ghost. */
+  private newGhost = -1;
+
+
+  /**
+   * A hull vertex that a new hull vertex s leaves flat (on the segment
+   * between its two hull neighbours) with its lifted point on or above
+   * their chord is redundant; no edge test sees it (it has no triangle
+   * across the hull), so the hull around s is checked here. e: an out-edge of s.
+   */
+  private pruneFlatHull(s: number, e: number): void {
+    const v = this.vert, tw = this.twin, xy = this.xy, w = this.w!;
+    const flat = (a: number, b: number, c: number): boolean =>
+      a !== c && orient2d(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], xy[2 * c], xy[2 * c + 1]) === 0 &&
+      liftedAboveChord(xy[2 * a], xy[2 * a + 1], w[a], xy[2 * b], xy[2 * b + 1], w[b], xy[2 * c], xy[2 * c + 1], w[c]) >= 0;
+    for (let guard = 0; guard <= this.count; guard++) {
+      let g = e, steps = 0;
+      while (v[nextOf(g)] !== GHOST) {
+        g = tw[prevOf(g)];
+        if (++steps > this.count) return;
+      }
+      // g = s→G in the ghost (x, s, G); the ghost (s, y, G) is across G→s.
+      const x = v[prevOf(g)], toX = tw[nextOf(g)], z = v[prevOf(toX)];
+      const sy = nextOf(tw[g]), y = v[nextOf(sy)], toY = nextOf(sy), c = v[nextOf(nextOf(tw[toY]))];
+      const before = this.removed.length;
+      if (flat(z, x, s)) this.removeVertex(toX);
+      else if (flat(s, y, c)) this.removeVertex(toY);
+      else return;
+      if (this.removed.length === before) return;
+      const t = 3 * this.last;
+      e = v[t] === s ? t : v[t + 1] === s ? t + 1 : v[t + 2] === s ? t + 2 : -1;
+      if (e < 0) return;
+    }
   }
 
   private push(e: number, depth: number): number {
@@ -203,8 +283,7 @@ export class TriangleStore {
     const e0 = 3 * t;
     const a = v[e0], b = v[e0 + 1], c = v[e0 + 2];
     const o1 = tw[e0 + 1], o2 = tw[e0 + 2];
-    const t1 = this.count, t2 = this.count + 1;
-    this.count += 2;
+    const t1 = this.take(), t2 = this.take();
     const f0 = 3 * t1, g0 = 3 * t2;
     // t: (a, b, s); t1: (b, c, s); t2: (c, a, s).
     v[e0 + 2] = s;
@@ -230,8 +309,7 @@ export class TriangleStore {
     const f1 = nextOf(f), f2 = nextOf(f1);
     const a = v[e], b = v[e1], c = v[e2], d = v[f2];
     const x2 = tw[e2], y2 = tw[f2];
-    const n1 = this.count, n2 = this.count + 1;
-    this.count += 2;
+    const n1 = this.take(), n2 = this.take();
     const h = 3 * n1, k = 3 * n2;
     // (a,b,c) becomes (s,b,c) + (a,s,c); (b,a,d) becomes (s,a,d) + (b,s,d).
     v[e] = s;
@@ -288,8 +366,7 @@ export class TriangleStore {
     // Two new ghosts close the hull: (a0, s, G) and (s, bk, G).
     const endOut = tw[out], startBack = tw[back];
     const a0 = v[nextOf(back)], bk = v[out];
-    const n1 = this.count, n2 = this.count + 1;
-    this.count += 2;
+    const n1 = this.take(), n2 = this.take();
     const h = 3 * n1, k = 3 * n2;
     v[h] = a0; v[h + 1] = s; v[h + 2] = GHOST;
     v[k] = s; v[k + 1] = bk; v[k + 2] = GHOST;
@@ -300,6 +377,7 @@ export class TriangleStore {
     this.link(h + 1, k + 2);
     this.last = (real / 3) | 0;
     this.depth = depth;
+    this.newGhost = k;
   }
 
   /** Lawson flips until every edge opposite the new point is locally Delaunay. */
@@ -322,14 +400,7 @@ export class TriangleStore {
       if (incircle(
         xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1],
         xy[2 * p], xy[2 * p + 1], xy[2 * d], xy[2 * d + 1]) <= 0) continue;
-      const x1 = tw[e1], x2 = tw[e2], y1 = tw[f1], y2 = tw[f2];
-      // (a,b,p) + (b,a,d) become (p,d,b) + (d,p,a).
-      v[e] = p; v[e1] = d; v[e2] = b;
-      v[f] = d; v[f1] = p; v[f2] = a;
-      tw[e1] = y2; tw[y2] = e1;
-      tw[e2] = x1; tw[x1] = e2;
-      tw[f1] = x2; tw[x2] = f1;
-      tw[f2] = y1; tw[y1] = f2;
+      this.flip(e);
       if (depth + 2 > stack.length) {
         const grown = new Int32Array(2 * stack.length);
         grown.set(stack);
@@ -339,5 +410,302 @@ export class TriangleStore {
       stack[depth++] = f2;
     }
     this.depth = 0;
+  }
+
+  /**
+   * Lawson flips for a regular triangulation (Edelsbrunner and Shah 1996):
+   * an edge of the new site's link that is not locally regular is flipped
+   * when its quadrilateral is convex; when it is not, and the reflex vertex
+   * has only three triangles, those three become one and the vertex, now
+   * redundant, leaves (a 3-to-1 flip). Otherwise the edge waits: later
+   * flips around the new site resolve it.
+   */
+  private legalizeWeighted(): void {
+    const v = this.vert, tw = this.twin, xy = this.xy, w = this.w!;
+    let depth = this.depth;
+    while (depth > 0) {
+      const e = this.stack[--depth];
+      const e1 = nextOf(e), e2 = nextOf(e1);
+      const a = v[e], b = v[e1];
+      if (a < 0 || b < 0) continue;
+      const f = tw[e];
+      const f1 = nextOf(f), f2 = nextOf(f1);
+      const d = v[f2], p = v[e2];
+      if (d < 0 || p < 0) continue;
+      const power = powerTestOf(this.xyw, a, b, p, d);
+      if (power < 0) continue;
+      // After a flip the triangles would be (p, d, b) and (d, p, a): both must turn counter-clockwise.
+      const atB = orient2d(xy[2 * p], xy[2 * p + 1], xy[2 * d], xy[2 * d + 1], xy[2 * b], xy[2 * b + 1]);
+      const atA = orient2d(xy[2 * d], xy[2 * d + 1], xy[2 * p], xy[2 * p + 1], xy[2 * a], xy[2 * a + 1]);
+      // Coplanar: keep the edge, as Delaunay keeps a cocircular diagonal; but a vertex on the segment pd
+      // with its lifted point on the chord has no area of its own: it is redundant, as inserted sites are.
+      if (power === 0 && atA !== 0 && atB !== 0) continue;
+      if (atB < 0 && atA < 0) {
+        this.flip(e);
+        depth = this.push(e1, depth);
+        depth = this.push(f2, depth);
+        continue;
+      }
+      this.depth = depth;
+      // Reflex at b: with three triangles, b's third must be (p, b, d), entered across b→p.
+      // Flat at b (on the segment pd): b is redundant whatever its degree (its lifted point lies
+      // above the chord of p's and d's), and leaves by flips that bring it down to three.
+      if (atB >= 0) {
+        const g = tw[e1], g1 = nextOf(g);
+        if (tw[g1] === f2) this.push3(this.removeDegree3(e2, f1, nextOf(g1), b));
+        else if (atB === 0) this.removeVertex(f);
+      } else {
+        // The same at a: its third triangle (a, p, d), entered across p→a.
+        const g = tw[e2];
+        if (tw[prevOf(g)] === f1) this.push3(this.removeDegree3(nextOf(g), f2, e1, a));
+        else if (atA === 0) this.removeVertex(e);
+      }
+      depth = this.depth;
+    }
+    this.depth = 0;
+  }
+
+  /** (a,b,p) + (b,a,d) across half-edge e = a→b become (p,d,b) + (d,p,a). */
+  private flip(e: number): void {
+    const v = this.vert, tw = this.twin;
+    const e1 = nextOf(e), e2 = nextOf(e1), f = tw[e], f1 = nextOf(f), f2 = nextOf(f1);
+    const a = v[e], b = v[e1], p = v[e2], d = v[f2];
+    const x1 = tw[e1], x2 = tw[e2], y1 = tw[f1], y2 = tw[f2];
+    v[e] = p; v[e1] = d; v[e2] = b;
+    v[f] = d; v[f1] = p; v[f2] = a;
+    tw[e1] = y2; tw[y2] = e1;
+    tw[e2] = x1; tw[x1] = e2;
+    tw[f1] = x2; tw[x2] = f1;
+    tw[f2] = y1; tw[y1] = f2;
+  }
+
+  /** Pushes the three edges of the triangle holding half-edge e for a regularity check. */
+  private push3(e: number): void {
+    const t = 3 * ((e / 3) | 0);
+    this.depth = this.push(t, this.depth);
+    this.depth = this.push(t + 1, this.depth);
+    this.depth = this.push(t + 2, this.depth);
+  }
+
+  /**
+   * Removes the redundant vertex r at the origin of half-edge z: flips
+   * edges out of r whose neighbours form a convex corner that r lies beyond
+   * (an ear of r's star) until three remain, then merges those three.
+   * Every triangle touched goes on the stack, so Lawson flips restore
+   * regularity afterwards.
+   */
+  private removeVertex(z: number): void {
+    const v = this.vert, tw = this.twin, xy = this.xy, r = v[z];
+    const rx = xy[2 * r], ry = xy[2 * r + 1];
+    for (let guard = 0; guard < 1 << 20; guard++) {
+      const outs: number[] = [];
+      let e = z, ghost = -1;
+      do {
+        if (v[nextOf(e)] < 0) ghost = outs.length;
+        outs.push(e);
+        e = tw[prevOf(e)];
+      } while (e !== z && outs.length <= this.count);
+      const k = outs.length;
+      // On the hull (only flat there: a hull corner is never redundant), r's fan runs from the
+      // edge after the ghost to the one before it; only edges inside the fan may flip.
+      if (ghost >= 0) {
+        const fan = outs.slice(ghost + 1).concat(outs.slice(0, ghost));
+        if (fan.length === 3 && this.removeFlatHullVertex(outs[ghost], fan, r)) return;
+        if (fan.length <= 3) return;
+      } else if (k === 3) {
+        this.push3(this.removeDegree3(nextOf(outs[0]), nextOf(outs[1]), nextOf(outs[2]), r));
+        return;
+      }
+      // An ear strictly first; failing that (r where two diagonals of its star cross, on a grid say),
+      // one whose new diagonal passes through r: the zero-area triangle left is merged away next.
+      let flipped = false;
+      for (let pass = 0; pass < 2 && !flipped; pass++) {
+        for (let i = 0; i < k && !flipped; i++) {
+          if (ghost >= 0) {
+            // Inside the fan only: not the ghost edge nor the two hull edges beside it.
+            const j = (i - ghost + k) % k;
+            if (j <= 1 || j === k - 1) continue;
+          }
+          const x = v[nextOf(outs[i])], before = v[nextOf(outs[(i + k - 1) % k])], after = v[nextOf(outs[(i + 1) % k])];
+          const bx = xy[2 * before], by = xy[2 * before + 1], ax = xy[2 * after], ay = xy[2 * after + 1];
+          if (orient2d(bx, by, xy[2 * x], xy[2 * x + 1], ax, ay) >= 0) continue;
+          const side = orient2d(rx, ry, bx, by, ax, ay);
+          if (side > 0 || (side === 0 && pass === 0)) continue;
+          const ei = outs[i], f = tw[ei];
+          this.flip(ei);
+          this.push3(ei);
+          this.push3(f);
+          z = nextOf(nextOf(f));
+          flipped = true;
+        }
+      }
+      if (!flipped) return;
+    }
+  }
+
+  /**
+   * Removes vertex r, whose three triangles have the outer edges x, y, z
+   * (in counter-clockwise order around r's star); the first triangle's slot
+   * takes the merged triangle, the two others are freed. Returns the new
+   * half-edge in the place of y, the edge opposite the inserted site.
+   */
+  private removeDegree3(x: number, y: number, z: number, r: number): number {
+    const v = this.vert, tw = this.twin;
+    const tx = (x / 3) | 0, ty = (y / 3) | 0, tz = (z / 3) | 0;
+    const ox = tw[x], oy = tw[y], oz = tw[z];
+    const vx = v[x], vy = v[y], vz = v[z];
+    const k = 3 * tx;
+    v[k] = vx; v[k + 1] = vy; v[k + 2] = vz;
+    tw[k] = ox; tw[ox] = k;
+    tw[k + 1] = oy; tw[oy] = k + 1;
+    tw[k + 2] = oz; tw[oz] = k + 2;
+    this.retire(r, ty, tz, tx);
+    return k + 1;
+  }
+
+  /**
+   * Removes a redundant site r lying on a hull edge (flat there), whose
+   * fan is down to two triangles (r, y1, y2), (r, y2, y3) between the
+   * ghosts (r, G, y1) and (r, y3, G): they become the triangle (y1, y2, y3)
+   * and the ghost (y1, y3, G). False (nothing done) if y1, y2, y3 do not
+   * turn counter-clockwise.
+   */
+  private removeFlatHullVertex(toGhost: number, fan: number[], r: number): boolean {
+    const v = this.vert, tw = this.twin, xy = this.xy;
+    const [o1, o2, o3] = fan;
+    const y1 = v[nextOf(o1)], y2 = v[nextOf(o2)], y3 = v[nextOf(o3)];
+    if (orient2d(xy[2 * y1], xy[2 * y1 + 1], xy[2 * y2], xy[2 * y2 + 1], xy[2 * y3], xy[2 * y3 + 1]) >= 0) return false;
+    const out12 = tw[nextOf(o1)], out23 = tw[nextOf(o2)];
+    const outY3G = tw[nextOf(o3)], outGY1 = tw[nextOf(toGhost)];
+    const t1 = (o1 / 3) | 0, t2 = (o2 / 3) | 0, g1 = (toGhost / 3) | 0, g2 = (o3 / 3) | 0;
+    const k = 3 * t1, g = 3 * g1;
+    v[k] = y1; v[k + 1] = y2; v[k + 2] = y3;
+    v[g] = y1; v[g + 1] = y3; v[g + 2] = GHOST;
+    tw[k] = out12; tw[out12] = k;
+    tw[k + 1] = out23; tw[out23] = k + 1;
+    tw[k + 2] = g; tw[g] = k + 2;
+    tw[g + 1] = outY3G; tw[outY3G] = g + 1;
+    tw[g + 2] = outGY1; tw[outGY1] = g + 2;
+    this.retire(r, t2, g2, t1);
+    this.push3(k);
+    return true;
+  }
+
+  /** Records vertex r as removed and frees the slots of triangles t and u; the next walk starts at `keep`. */
+  private retire(r: number, t: number, u: number, keep: number): void {
+    const v = this.vert;
+    v[3 * t] = v[3 * t + 1] = v[3 * t + 2] = DEAD;
+    v[3 * u] = v[3 * u + 1] = v[3 * u + 2] = DEAD;
+    this.free.push(t, u);
+    this.removed.push(r);
+    this.last = keep;
+  }
+
+  /**
+   * The last word of a weighted build. A vertex whose lifted point lies on
+   * a face of the lower hull without being a corner of it (on a chord of two
+   * neighbours, or in a triangle of three) owns no area; the incremental
+   * steps catch most, this pass catches the rest. Only vertices touching a
+   * coplanar edge can be such (their star is not strictly convex when
+   * lifted), so one filtered power test per edge finds the candidates, and
+   * the hull is checked for flat corners. Repeats until nothing changes.
+   */
+  cleanupRedundant(): void {
+    for (let round = 0; round < 64; round++) if (!this.cleanupPass()) return;
+  }
+
+  /**
+   * One pass of cleanupRedundant over every edge and the whole hull; true
+   * when it removed something.
+   */
+  private cleanupPass(): boolean {
+    const v = this.vert, tw = this.twin;
+    const removedBefore = this.removed.length;
+    const outEdge = new Map<number, number>();
+    const hullOut: number[] = [];
+    for (let e = 0; e < 3 * this.count; e++) {
+      const a = v[e];
+      if (a < 0 || v[nextOf(e)] === DEAD) continue;
+      const b = v[nextOf(e)], p = v[prevOf(e)];
+      if (b === GHOST) { hullOut.push(e); continue; }
+      if (p < 0) continue;
+      const f = tw[e];
+      if (f < e) continue;
+      const d = v[prevOf(f)];
+      if (d < 0) continue;
+      const power = powerTestOf(this.xyw, a, b, p, d);
+      if (power > 0) this.depth = this.push(e, this.depth);
+      if (power >= 0) { outEdge.set(a, e); outEdge.set(b, f); }
+    }
+    if (this.depth > 0) this.legalizeWeighted();
+    for (const e of hullOut) {
+      if (v[e] < 0 || v[nextOf(e)] !== GHOST) continue;
+      this.pruneFlatHull(v[e], e);
+    }
+    for (const [r, e] of outEdge) {
+      if (v[e] !== r || !this.hasNoArea(r, e)) continue;
+      this.removeVertex(e);
+      this.legalizeWeighted();
+    }
+    return this.removed.length > removedBefore;
+  }
+
+  /** Whether interior vertex r (out-edge e) lies on a chord of two neighbours or in a triangle of three, lifted on or above. */
+  private hasNoArea(r: number, e: number): boolean {
+    const v = this.vert, tw = this.twin, xy = this.xy, w = this.w!;
+    const nb: number[] = [];
+    let z = e;
+    do {
+      const u = v[nextOf(z)];
+      if (u < 0) return false;
+      nb.push(u);
+      z = tw[prevOf(z)];
+    } while (z !== e && nb.length <= this.count);
+    const rx = xy[2 * r], ry = xy[2 * r + 1], rw = w[r];
+    const k = nb.length;
+    for (let i = 0; i < k; i++) {
+      const a = nb[i], ax = xy[2 * a], ay = xy[2 * a + 1];
+      for (let j = i + 1; j < k; j++) {
+        const b = nb[j], bx = xy[2 * b], by = xy[2 * b + 1];
+        const o = orient2d(ax, ay, rx, ry, bx, by);
+        if (o === 0 && (ax - rx) * (bx - rx) + (ay - ry) * (by - ry) < 0 &&
+          liftedAboveChord(ax, ay, w[a], rx, ry, rw, bx, by, w[b]) >= 0) return true;
+        for (let m = j + 1; m < k; m++) {
+          const c = nb[m], cx = xy[2 * c], cy = xy[2 * c + 1];
+          // Neighbours in counter-clockwise order around r: (a, b, c) turns counter-clockwise when it holds r.
+          if (orient2d(ax, ay, bx, by, rx, ry) > 0 || orient2d(bx, by, cx, cy, rx, ry) > 0 ||
+            orient2d(cx, cy, ax, ay, rx, ry) > 0) continue;
+          if (orient2d(ax, ay, bx, by, cx, cy) >= 0) continue;
+          if (powerTest(ax, ay, w[a], bx, by, w[b], cx, cy, w[c], rx, ry, rw) <= 0) return true;
+        }
+      }
+    }
+    return false;
+  }
+
+  /**
+   * Moves live triangles into the slots freed by vertex removals, so that
+   * triangles 0..count-1 are all in use again.
+   */
+  pack(): void {
+    const v = this.vert, tw = this.twin;
+    this.free.sort((p, q) => p - q);
+    for (const hole of this.free) {
+      while (this.count > 0 && v[3 * (this.count - 1)] === DEAD) this.count--;
+      if (hole >= this.count) continue;
+      const last = this.count - 1;
+      for (let j = 0; j < 3; j++) {
+        v[3 * hole + j] = v[3 * last + j];
+        const o = tw[3 * last + j];
+        tw[3 * hole + j] = o;
+        tw[o] = 3 * hole + j;
+      }
+      v[3 * last] = v[3 * last + 1] = v[3 * last + 2] = DEAD;
+      if (this.last === last) this.last = hole;
+      this.count--;
+    }
+    while (this.count > 0 && v[3 * (this.count - 1)] === DEAD) this.count--;
+    this.free = [];
+    if (this.last >= this.count || v[3 * this.last] === DEAD) this.last = 0;
   }
 }

@@ -1,5 +1,6 @@
 import { orient2d } from 'robust-predicates';
-import { readPoints, type PointInput } from '../core/input.js';
+import { readPoints, readWeights, type PointInput } from '../core/input.js';
+import { liftedAboveChord } from '../core/power.js';
 import { InputError } from '../core/errors.js';
 import { mergeDuplicates, type SiteSet } from '../core/dedupe.js';
 import { HalfEdgeMesh } from '../mesh/mesh.js';
@@ -17,6 +18,12 @@ export interface TriangulateOptions {
    * cocircular, which diagonal is kept depends on the order.
    */
   order?: InsertionOrder;
+  /**
+   * One weight per input point, for the regular (weighted Delaunay)
+   * triangulation: the dual of the power diagram, distance |p - s|^2 - w.
+   * Weights may also come inside the points, as [x, y, w] or {x, y, w}.
+   */
+  weights?: ArrayLike<number>;
 }
 
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
@@ -76,11 +83,17 @@ export class Triangulation {
   /** Coordinates by site number, made on first request when ranks differ from sites. */
   private bySite: Float64Array | null;
   private sitesCache: Int32Array | null = null;
+  /** Weights by site, or null; by rank in the store. */
+  private siteW: Float64Array | null;
+  private rankW: Float64Array | null = null;
+  /** Sites with no vertex: made redundant by heavier neighbours. */
+  private hidden: Int32Array = new Int32Array(0);
 
   /** @internal Use {@link triangulate}. */
-  constructor(sites: SiteSet, order: InsertionOrder | null) {
+  constructor(sites: SiteSet, order: InsertionOrder | null, weights: Float64Array | null = null) {
     this.bySite = sites.xy;
     this.rankXY = sites.xy;
+    this.siteW = weights;
     this.siteCount = sites.count;
     this.siteOfInput = sites.siteOfInput;
     this.dimension = 0;
@@ -165,6 +178,21 @@ export class Triangulation {
     return this.siteOfRank ? this.siteOfRank[rank] : rank;
   }
 
+  /** The weight of each site (the largest of the points merged onto it); null when unweighted. */
+  get weights(): Float64Array | null { return this.siteW; }
+
+  /**
+   * Sites that are not vertices of the regular triangulation: their lifted
+   * point lies on or above the lower hull, so their power cell is empty.
+   * Always empty without weights. Ascending.
+   */
+  get hiddenSites(): Int32Array { return this.hidden; }
+
+  /** @internal Weights in the store's rank order (null when unweighted). */
+  rankWeights(): Float64Array | null {
+    return this.rankW ?? this.siteW;
+  }
+
   get inputCount(): number { return this.siteOfInput.length; }
   /** Input points merged onto an earlier equal point. */
   get mergedCount(): number { return this.siteOfInput.length - this.siteCount; }
@@ -197,12 +225,15 @@ export class Triangulation {
     this.real = -1;
     this.vertexEdge = null;
     this.rankXY = xy;
+    this.rankW = null;
     this.siteOfRank = null;
     this.rankOfSiteCache = null;
     this.sitesCache = null;
+    this.hidden = new Int32Array(0);
+    const weighted = this.siteW !== null && !allEqual(this.siteW);
     if (n < 3) {
       this.dimension = n === 1 ? 0 : 1;
-      this.path = lexicographic(xy, n);
+      this.setPath(lexicographic(xy, n));
       return;
     }
     const local = new Float64Array(2 * n);
@@ -219,16 +250,28 @@ export class Triangulation {
     }
     if (k === n) {
       this.dimension = 1;
-      this.path = lexicographic(xy, n);
+      this.setPath(lexicographic(xy, n));
       return;
     }
     this.dimension = 2;
     const store = new TriangleStore(local, 2 * n - 2);
+    if (weighted) {
+      // Equal weights change nothing: such builds take the unweighted path and give its result exactly.
+      const w = this.siteW!, lw = new Float64Array(n);
+      for (let r = 0; r < n; r++) lw[r] = w[siteOfRank[r]];
+      store.setWeights(lw);
+      this.rankW = lw;
+    }
     // orient2d < 0 is counter-clockwise (y-up).
     if (turn < 0) store.init(a, b, ord[k]);
     else store.init(b, a, ord[k]);
     for (let i = 2; i < n; i++) {
       if (i !== k) store.insert(ord[i]);
+    }
+    if (weighted) store.cleanupRedundant();
+    if (store.removed.length > 0) {
+      store.pack();
+      this.hidden = Int32Array.from(store.removed, (r) => siteOfRank[r]).sort();
     }
     this.store = store;
     this.rankXY = local;
@@ -236,6 +279,29 @@ export class Triangulation {
     // The site-ordered copy is made again only if asked for: most users never read it.
     this.bySite = null;
     this.compact();
+  }
+
+  /**
+   * Sites along their line (or the one site). With weights, a site whose
+   * lifted point is on or above the chord of its neighbours' is hidden:
+   * the one-dimensional lower hull, by exact tests.
+   */
+  private setPath(line: Int32Array): void {
+    const w = this.siteW;
+    if (w === null || allEqual(w) || line.length < 3) { this.path = line; return; }
+    const xy = this.siteXY;
+    const kept: number[] = [];
+    const hidden: number[] = [];
+    for (const c of line) {
+      while (kept.length >= 2) {
+        const b = kept[kept.length - 1], a = kept[kept.length - 2];
+        if (liftedAboveChord(xy[2 * a], xy[2 * a + 1], w[a], xy[2 * b], xy[2 * b + 1], w[b], xy[2 * c], xy[2 * c + 1], w[c]) < 0) break;
+        hidden.push(kept.pop()!);
+      }
+      kept.push(c);
+    }
+    this.path = Int32Array.from(kept);
+    this.hidden = Int32Array.from(hidden).sort();
   }
 
   /**
@@ -402,6 +468,9 @@ export class Triangulation {
    * it. Returns the site of each given point, in order.
    */
   insert(points: PointInput): Int32Array {
+    if (this.siteW !== null) {
+      throw new InputError('bad-option', 'insert() into a weighted triangulation is not supported; build it again with all weights', -1, 'weights');
+    }
     const batch = readPoints(points, true);
     const m = batch.length >> 1;
     if (m === 0) return new Int32Array(0);
@@ -513,14 +582,25 @@ export class Triangulation {
       const across = tw[nextOf(re)];
       next[H] = len + ((across / 3) | 0) - T;
     }
-    const faceEdge = new Int32Array(T + 1);
-    for (let t = 0; t < T; t++) faceEdge[t] = 3 * t;
-    faceEdge[T] = len;
-    return new HalfEdgeMesh({
-      kind: 'delaunay', vertexXY, origin, twin, next, face, faceEdge,
-      faceSite: new Int32Array(T + 1).fill(-1), outerFace: T,
-    });
+    return triangleMesh(vertexXY, origin, twin, next, face, T);
   }
+}
+
+/**
+ * A Delaunay mesh from half-edge arrays laid out as toMesh() lays them:
+ * triangle t holds half-edges 3t..3t+2, the outer face (number T) the rest,
+ * from 3T on.
+ */
+export function triangleMesh(
+  vertexXY: Float64Array, origin: Int32Array, twin: Int32Array, next: Int32Array, face: Int32Array, T: number,
+): HalfEdgeMesh {
+  const faceEdge = new Int32Array(T + 1);
+  for (let t = 0; t < T; t++) faceEdge[t] = 3 * t;
+  faceEdge[T] = 3 * T;
+  return new HalfEdgeMesh({
+    kind: 'delaunay', vertexXY, origin, twin, next, face, faceEdge,
+    faceSite: new Int32Array(T + 1).fill(-1), outerFace: T,
+  });
 }
 
 /** Exchanges the numbers of triangles g and r, keeping every twin link right. */
@@ -574,5 +654,21 @@ export function triangulate(points: PointInput, options: TriangulateOptions = {}
   if (order !== 'hilbert' && order !== 'brio' && order !== 'input') {
     throw new InputError('bad-option', `order must be 'hilbert', 'brio' or 'input', got ${String(order)}`, -1, 'order');
   }
-  return new Triangulation(mergeDuplicates(readPoints(points)), order);
+  const xy = readPoints(points);
+  const weights = readWeights(points, options.weights, xy.length >> 1);
+  const sites = mergeDuplicates(xy);
+  return new Triangulation(sites, order, weights && weightsOfSites(weights, sites));
+}
+
+/** Each site's weight: the largest among the points merged onto it (the others would be hidden by it). */
+function weightsOfSites(weights: Float64Array, sites: SiteSet): Float64Array {
+  const out = new Float64Array(sites.count).fill(-Infinity);
+  const soi = sites.siteOfInput;
+  for (let i = 0; i < soi.length; i++) if (weights[i] > out[soi[i]]) out[soi[i]] = weights[i];
+  return out;
+}
+
+function allEqual(w: Float64Array): boolean {
+  for (let i = 1; i < w.length; i++) if (w[i] !== w[0]) return false;
+  return true;
 }

@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkMesh, InputError, orient, triangulate, voronoi } from '../../src/index.js';
 import { allGenerators, latticeCircle, permuteBy, RING_RADII, type NamedGenerator } from '../support/generators.js';
+import { cellPairs } from '../support/diagram-compare.js';
 import { monotoneChainHull } from '../support/hull.js';
 import {
   boundingBox, convexDepth, dualEdges, nearestSiteExact, polygonArea, polygonCentroid, polygonPerimeter,
@@ -371,17 +372,7 @@ function diagramProblems(input: number[], spec: RegionSpec, extra: Extra): strin
   }
 
   // -- adjacency against the duals of the Delaunay edges
-  const ours = new Map<string, number>();
-  for (let e = 0; e < m.origin.length; e++) {
-    const f = m.face[e], g = m.face[m.twin[e]];
-    if (f === m.outerFace || g === m.outerFace) continue;
-    const a = m.faceSite[f], b = m.faceSite[g];
-    if (a >= b) continue;
-    const u = m.origin[e], v = m.origin[m.twin[e]];
-    const len = Math.hypot(m.vertexXY[2 * v] - m.vertexXY[2 * u], m.vertexXY[2 * v + 1] - m.vertexXY[2 * u + 1]);
-    const k = `${a},${b}`;
-    ours.set(k, (ours.get(k) ?? 0) + len);
-  }
+  const ours = cellPairs(d);
   // The library counts points within 4 ulps of the region's coordinates of a side as on it
   // (src/diagram/clip.ts, SNAP_ULPS), so an edge that close to a side along its length is dropped
   // with the sliver beside it; 16 ulps here covers that rule and the test's own rounding.

@@ -42,12 +42,32 @@ v = scipy.spatial.Voronoi(pts)
 reply({'vertices': v.vertices.tolist(), 'ridgePoints': v.ridge_points.tolist(),
        'ridgeVertices': [list(map(int, r)) for r in v.ridge_vertices]})
 `,
+  // The regular (weighted Delaunay) triangulation by the lifting map (Aurenhammer 1987): the LOWER faces
+  // (outward normal with negative z) of scipy.spatial.ConvexHull of (x, y, x^2 + y^2 - w), default Qhull options.
+  regular: `
+pts = np.array(req['points'], dtype=np.float64).reshape(-1, 2)
+w = np.array(req['weights'], dtype=np.float64)
+h = scipy.spatial.ConvexHull(np.column_stack([pts, (pts ** 2).sum(axis=1) - w]))
+reply({'triangles': h.simplices[h.equations[:, 2] < 0].tolist()})
+`,
   // scipy.spatial.cKDTree nearest neighbour (k=1, p=2) of each query: input point indices.
   kdtreeNearest: `
 pts = np.array(req['points'], dtype=np.float64).reshape(-1, 2)
 q = np.array(req['queries'], dtype=np.float64).reshape(-1, 2)
 _, idx = scipy.spatial.cKDTree(pts).query(q, k=1, p=2)
 reply({'nearest': idx.tolist()})
+`,
+  // cKDTree nearest neighbour under the Minkowski p-norm of each query, for every p in req['ps']
+  // (a number, or 'inf'): input point indices per p.
+  metricNearest: `
+pts = np.array(req['points'], dtype=np.float64).reshape(-1, 2)
+q = np.array(req['queries'], dtype=np.float64).reshape(-1, 2)
+tree = scipy.spatial.cKDTree(pts)
+out = {}
+for p in req['ps']:
+    _, idx = tree.query(q, k=1, p=(np.inf if p == 'inf' else float(p)))
+    out[str(p)] = idx.tolist()
+reply({'nearest': out})
 `,
 };
 

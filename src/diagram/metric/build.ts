@@ -1,0 +1,282 @@
+import { AmbitError, InputError } from '../../core/errors.js';
+import { orient } from '../../core/predicates.js';
+import { HalfEdgeMesh } from '../../mesh/mesh.js';
+import type { Triangulation } from '../../triangulate/triangulation.js';
+import { MIN_SPACING } from '../dual.js';
+import { bisector, type ExactMetric } from './bisector.js';
+import { clipCell, type Cell, type ClipContext } from './cell.js';
+import { corner, meet, sideOf, throughLine, type Line, type Pt } from './geometry.js';
+import { assembleCells, CellStore } from './assemble.js';
+import { SiteHeap } from './heap.js';
+import { dyAdd, dyMul, dySign, dySub, type Dyadic } from './dyadic.js';
+import { hilbertSort } from '../../core/hilbert.js';
+import { adjacency } from './graph.js';
+
+/** Label of the temporary box sides used for sites outside the region (never survives). */
+const BOX_LABEL = -(2 ** 30);
+
+/**
+ * The cells of an exact-metric Voronoi diagram, clipped to a convex region,
+ * as a half-edge mesh of kind 'voronoi'.
+ *
+ * Each cell is built on its own: start from the region (a polygon star-
+ * shaped about the site) and clip by one competitor at a time, nearest
+ * (Euclidean) first, found by a best-first search over the Delaunay graph.
+ * The k sites nearest a point are connected in the Delaunay graph (a known
+ * property of order-k Voronoi diagrams, from memory), so the search visits
+ * sites in order of Euclidean distance. It stops once the next one is
+ * farther than 2R c, where R is the largest metric distance from the site
+ * to its cell so far and c bounds the Euclidean length of a vector of
+ * metric length 1 (1 for L1, sqrt 2 for L-infinity): a site u can only take
+ * a cell point q when d(q,u) <= d(q,s) <= R, so d(s,u) <= 2R.
+ */
+export function metricCells(tri: Triangulation, region: Float64Array, metric: ExactMetric): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
+  const n = tri.siteCount, xy = tri.siteXY;
+  checkSpacing(tri, region);
+  const { off, adj } = adjacency(tri);
+  const m = region.length >> 1;
+  const regionLines: Line[] = [];
+  const regionPts: Pt[] = [];
+  for (let j = 0; j < m; j++) {
+    const k = j + 1 === m ? 0 : j + 1;
+    regionPts.push(corner(region[2 * j], region[2 * j + 1]));
+    regionLines.push(throughLine(region[2 * j], region[2 * j + 1], region[2 * k], region[2 * k + 1]));
+  }
+  const box = outerBox(xy, n, region);
+  const reach = metric === 'L1' ? 2 : 2 * Math.SQRT2;
+  const heap = new SiteHeap(Math.min(n, 1024));
+  const seen = new Int32Array(n).fill(-1);
+  const store = new CellStore(n);
+  let site = 0;
+  const ctx: ClipContext = {
+    get site() { return site; },
+    bisectorWith: (other) => bisector(metric, xy[2 * site], xy[2 * site + 1], xy[2 * other], xy[2 * other + 1]),
+    metric,
+    x: (s) => xy[2 * s],
+    y: (s) => xy[2 * s + 1],
+  };
+  // Cells in the order of a space-filling curve: consecutive cells read neighbouring memory.
+  const order = n > 1 ? hilbertSort(xy.subarray(0, 2 * n)).ids : Uint32Array.of(0);
+  for (let k = 0; k < n; k++) {
+    site = order[k];
+    const sx = xy[2 * site], sy = xy[2 * site + 1];
+    const inside = strictlyInside(region, sx, sy);
+    const cell: Cell = inside
+      ? { pts: regionPts.slice(), lines: regionLines.slice(), labels: regionLines.map((_, j) => -1 - j) }
+      : boxCell(box);
+    let limit = reach * farthest(cell, sx, sy, metric) * (1 + 2 ** -30);
+    heap.clear();
+    seen[site] = site;
+    for (let e = off[site]; e < off[site + 1]; e++) {
+      const u = adj[e];
+      seen[u] = site;
+      heap.push(u, dist2(xy, site, u));
+    }
+    while (heap.size > 0) {
+      if (heap.topKey() > limit * limit) break;
+      const u = heap.pop();
+      const ux = xy[2 * u], uy = xy[2 * u + 1];
+      if (!cannotClip(cell, metric, sx, sy, ux, uy, limit / reach)) {
+        if (clipCell(cell, bisector(metric, sx, sy, ux, uy), u, ctx)) limit = reach * farthest(cell, sx, sy, metric) * (1 + 2 ** -30);
+      }
+      for (let e = off[u]; e < off[u + 1]; e++) {
+        const w = adj[e];
+        if (seen[w] === site) continue;
+        seen[w] = site;
+        heap.push(w, dist2(xy, site, w));
+      }
+    }
+    const done = inside ? cell : clipToRegion(cell, regionLines, site);
+    store.add(site, done ? done.pts : [], done ? done.labels : []);
+  }
+  return assembleCells(store, n, 'voronoi');
+}
+
+const U = 2 ** -53;
+
+/**
+ * A floating-point test that is only ever answered true when site u
+ * certainly takes no point of the cell: every corner is clearly nearer s
+ * (each metric distance is within 2u relative plus twice the corner's error
+ * of its float value), and the bisector cannot bulge in between corners.
+ * For that it would have to cross one edge twice, which takes a bend inside
+ * the cell; the bends lie at metric distance d(s,u)/2 from s (worked out
+ * from the formulas in bisector.ts), so beyond R (the cell's largest
+ * distance from s) or clearly outside the polygon they cannot. False means
+ * "clip exactly", never "u clips".
+ */
+function cannotClip(cell: Cell, metric: ExactMetric, sx: number, sy: number, ux: number, uy: number, R: number): boolean {
+  const L1 = metric === 'L1';
+  const dsu = L1 ? Math.abs(ux - sx) + Math.abs(uy - sy) : Math.max(Math.abs(ux - sx), Math.abs(uy - sy));
+  if (dsu > 2 * R) return true;
+  const pts = cell.pts;
+  for (let i = 0; i < pts.length; i++) {
+    const p = pts[i];
+    const ax = Math.abs(p.x - sx), ay = Math.abs(p.y - sy), bx = Math.abs(p.x - ux), by = Math.abs(p.y - uy);
+    const ds = L1 ? ax + ay : Math.max(ax, ay), du = L1 ? bx + by : Math.max(bx, by);
+    if (!(du - ds > 4 * U * (ds + du) + 4 * p.err + 2 ** -900)) return false;
+  }
+  if (dsu / 2 > R) return true;
+  // The bends, in the frame where the metric is L1 (see bisector.ts): at K = Ks and K = Ku.
+  const [Ps, Qs, Pu, Qu] = L1 ? [sx, sy, ux, uy] : [sx + sy, sx - sy, ux + uy, ux - uy];
+  const dP = Pu - Ps, dQ = Qu - Qs, h = (Math.abs(dP) + Math.abs(dQ)) / 2;
+  // Equal |dP|, |dQ| (nearly): a straight bisector, or a bend the float test cannot place; leave it to the exact clip.
+  if (Math.abs(Math.abs(dP) - Math.abs(dQ)) <= 8 * U * (Math.abs(dP) + Math.abs(dQ))) return dP === 0 || dQ === 0 ? true : false;
+  const alongP = Math.abs(dQ) > Math.abs(dP);
+  const bends = alongP
+    ? [Ps, Qs + Math.sign(dQ) * h, Pu, Qu - Math.sign(dQ) * h]
+    : [Ps + Math.sign(dP) * h, Qs, Pu - Math.sign(dP) * h, Qu];
+  for (let k = 0; k < 4; k += 2) {
+    const bx = L1 ? bends[k] : (bends[k] + bends[k + 1]) / 2, by = L1 ? bends[k + 1] : (bends[k] - bends[k + 1]) / 2;
+    if (!clearlyOutside(pts, bx, by)) return false;
+  }
+  return true;
+}
+
+/** Float point-in-polygon that only says "outside" with room to spare (no edge within a relative 2^-30). */
+function clearlyOutside(pts: Pt[], x: number, y: number): boolean {
+  let wn = 0;
+  for (let i = 0; i < pts.length; i++) {
+    const a = pts[i], b = pts[i + 1 === pts.length ? 0 : i + 1];
+    const ex = b.x - a.x, ey = b.y - a.y;
+    const cross = ex * (y - a.y) - ey * (x - a.x);
+    const len = Math.abs(ex) + Math.abs(ey);
+    const scale = len * (Math.abs(x - a.x) + Math.abs(y - a.y) + len);
+    if (Math.abs(cross) <= 2 ** -30 * scale + 2 * len * (a.err + b.err)) return false;
+    if (a.y <= y) { if (b.y > y && cross > 0) wn++; } else if (b.y <= y && cross < 0) wn--;
+  }
+  return wn === 0;
+}
+
+function dist2(xy: Float64Array, a: number, b: number): number {
+  const dx = xy[2 * a] - xy[2 * b], dy = xy[2 * a + 1] - xy[2 * b + 1];
+  return dx * dx + dy * dy;
+}
+
+/** Largest metric distance from the site to a corner of its cell, rounded up a little (corners carry an error bound). */
+function farthest(cell: Cell, sx: number, sy: number, metric: ExactMetric): number {
+  let r = 0;
+  for (const p of cell.pts) {
+    const e = Number.isFinite(p.err) ? 2 * p.err : 0;
+    const dx = Math.abs(p.x - sx) + e, dy = Math.abs(p.y - sy) + e;
+    const d = metric === 'L1' ? dx + dy : Math.max(dx, dy);
+    if (d > r) r = d;
+  }
+  return r;
+}
+
+function strictlyInside(region: Float64Array, x: number, y: number): boolean {
+  const m = region.length >> 1;
+  for (let j = 0; j < m; j++) {
+    const k = j + 1 === m ? 0 : j + 1;
+    if (orient(region[2 * j], region[2 * j + 1], region[2 * k], region[2 * k + 1], x, y) <= 0) return false;
+  }
+  return true;
+}
+
+/** A box around the sites and the region, with room: the start of cells of sites outside the region. */
+function outerBox(xy: Float64Array, n: number, region: Float64Array): Float64Array {
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  const take = (x: number, y: number): void => {
+    minX = Math.min(minX, x); maxX = Math.max(maxX, x); minY = Math.min(minY, y); maxY = Math.max(maxY, y);
+  };
+  for (let i = 0; i < n; i++) take(xy[2 * i], xy[2 * i + 1]);
+  for (let i = 0; i < region.length; i += 2) take(region[i], region[i + 1]);
+  const pad = 0.25 * Math.max(maxX - minX, maxY - minY) + 1;
+  return Float64Array.of(minX - pad, minY - pad, maxX + pad, minY - pad, maxX + pad, maxY + pad, minX - pad, maxY + pad);
+}
+
+function boxCell(box: Float64Array): Cell {
+  const pts: Pt[] = [], lines: Line[] = [], labels: number[] = [];
+  for (let j = 0; j < 4; j++) {
+    const k = (j + 1) % 4;
+    pts.push(corner(box[2 * j], box[2 * j + 1]));
+    lines.push(throughLine(box[2 * j], box[2 * j + 1], box[2 * k], box[2 * k + 1]));
+    labels.push(BOX_LABEL);
+  }
+  return { pts, lines, labels };
+}
+
+/**
+ * The cell of a site outside the region (or on its boundary), cut down to
+ * the region one side at a time. Null when nothing of positive area is left.
+ */
+function clipToRegion(cell: Cell, sides: Line[], site: number): Cell | null {
+  for (let j = 0; j < sides.length; j++) {
+    const L = sides[j], { pts, lines, labels } = cell, n = pts.length;
+    const sv = pts.map((p) => sideOf(p, L));
+    if (sv.every((v) => v <= 0)) return null;
+    const nPts: Pt[] = [], nLines: Line[] = [], nLabels: number[] = [];
+    const cuts: [number, number][] = [];
+    let open = -1;
+    for (let i = 0; i < n; i++) {
+      const k = i + 1 === n ? 0 : i + 1;
+      const a = sv[i], b = sv[k];
+      if (a > 0 || (a === 0 && b > 0)) { nPts.push(pts[i]); nLines.push(lines[i]); nLabels.push(labels[i]); }
+      else if (a === 0) { nPts.push(pts[i]); nLines.push(L); nLabels.push(-1 - j); open = nPts.length - 1; }
+      if (a > 0 && b < 0) { nPts.push(meet(lines[i], L)); nLines.push(L); nLabels.push(-1 - j); open = nPts.length - 1; }
+      if (a < 0 && b > 0) { nPts.push(meet(lines[i], L)); nLines.push(lines[i]); nLabels.push(labels[i]); }
+      if (open >= 0 && nLabels[nLabels.length - 1] !== -1 - j) { cuts.push([open, nPts.length - 1]); open = -1; }
+    }
+    if (nPts.length < 3 || !positiveArea(nPts)) return null;
+    // Two cuts along the same side that overlap would be a zero-width bridge between separate pieces.
+    const along = (p: Pt): number => p.y * L.a - p.x * L.b;
+    const spans = cuts.map(([a, b]) => [along(nPts[a]), along(nPts[b])].sort((u, v) => u - v));
+    for (let a = 0; a < spans.length; a++) {
+      for (let b = a + 1; b < spans.length; b++) {
+        if (spans[a][0] < spans[b][1] && spans[b][0] < spans[a][1]) {
+          throw new AmbitError('unsupported-geometry', `the cell of site ${site}, which lies outside the clip region, meets the region in separate pieces; this is not supported yet`);
+        }
+      }
+    }
+    cell = { pts: nPts, lines: nLines, labels: nLabels };
+  }
+  if (cell.labels.includes(BOX_LABEL)) throw new Error('metric cells: a box side survived clipping to the region');
+  return cell;
+}
+
+/**
+ * Whether a clipped cell still has area: a cell whose part in the region lies
+ * along a region side (its bisector runs exactly on the side) collapses to
+ * points on that side. Floating point answers clear cases; thin ones are
+ * decided exactly (twice the area over a common denominator of the
+ * homogeneous corners).
+ */
+function positiveArea(pts: Pt[]): boolean {
+  let a2 = 0, ext = 0;
+  const x0 = pts[0].x, y0 = pts[0].y;
+  for (let i = 1; i + 1 < pts.length; i++) {
+    const ux = pts[i].x - x0, uy = pts[i].y - y0, vx = pts[i + 1].x - x0, vy = pts[i + 1].y - y0;
+    a2 += ux * vy - uy * vx;
+    ext = Math.max(ext, Math.abs(ux) + Math.abs(uy));
+  }
+  if (a2 > 2 ** -30 * ext * ext) return true;
+  const ex = pts.map((p) => p.exact());
+  const n = ex.length;
+  let total: Dyadic = { m: 0n, e: 0 };
+  let W: Dyadic = { m: 1n, e: 0 };
+  for (let i = 0; i < n; i++) {
+    W = dyMul(W, ex[i][2]);
+    const j = (i + 1) % n;
+    let term = dySub(dyMul(ex[i][0], ex[j][1]), dyMul(ex[j][0], ex[i][1]));
+    for (let k = 0; k < n; k++) if (k !== i && k !== j) term = dyMul(term, ex[k][2]);
+    total = dyAdd(total, term);
+  }
+  return dySign(total) * dySign(W) > 0;
+}
+
+/** Two sites too close for any cell boundary between them to be placed in double precision (as for the Euclidean diagram). */
+function checkSpacing(tri: Triangulation, region: Float64Array): void {
+  const xy = tri.siteXY, edges = tri.edges();
+  let magnitude = 0;
+  for (let i = 0; i < 2 * tri.siteCount; i++) magnitude = Math.max(magnitude, Math.abs(xy[i]));
+  for (let i = 0; i < region.length; i++) magnitude = Math.max(magnitude, Math.abs(region[i]));
+  for (let e = 0; e < edges.length; e += 2) {
+    const d = Math.sqrt(dist2(xy, edges[e], edges[e + 1]));
+    if (d < MIN_SPACING * magnitude) {
+      throw new InputError('too-close',
+        `sites ${edges[e]} and ${edges[e + 1]} are ${d} apart, closer than ${MIN_SPACING} times the largest coordinate (${magnitude}); ` +
+        'no cell boundary can be placed between them in double precision', -1, 'points');
+    }
+  }
+}

@@ -1,0 +1,44 @@
+import type { Triangulation } from '../../triangulate/triangulation.js';
+import { ClippedCells } from '../cells.js';
+import type { ExactMetric } from './bisector.js';
+import { metricCells } from './build.js';
+import { MetricLocator } from './locate.js';
+import { hilbertSort } from '../../core/hilbert.js';
+
+/**
+ * The Voronoi diagram of sites under L1 (city block) or L-infinity
+ * (chessboard) distance, clipped to a convex region: cells are star-shaped
+ * polygons (bisectors bend, so a cell need not be convex), on one half-edge
+ * mesh with the same conventions as VoronoiDiagram. A point belongs to the
+ * site nearest in the metric; ties go to the Euclidean-nearer site, then
+ * to the smaller by (x, then y), so cells partition the region whatever the
+ * input order.
+ */
+export class MetricVoronoiDiagram extends ClippedCells {
+  readonly metric: ExactMetric;
+  private locator: MetricLocator | null = null;
+
+  /** @internal Use {@link voronoi} with a metric option. */
+  constructor(tri: Triangulation, region: Float64Array, metric: ExactMetric) {
+    super(tri, region, metricCells(tri, region, metric));
+    this.metric = metric;
+  }
+
+  private queries(): MetricLocator {
+    return (this.locator ??= new MetricLocator(this.triangulation, this.metric));
+  }
+
+  /** The site nearest to (x, y) in the metric, ties by the rule above. */
+  nearest(x: number, y: number): number { return this.queries().nearest(x, y); }
+
+  /** nearest() for many points (interleaved x, y), answered along a space-filling curve. */
+  nearestMany(xy: Float64Array | ArrayLike<number>): Int32Array {
+    const m = xy.length >> 1, out = new Int32Array(m);
+    const pts = Float64Array.from(xy as ArrayLike<number>);
+    for (const i of hilbertSort(pts).ids) out[i] = this.nearest(pts[2 * i], pts[2 * i + 1]);
+    return out;
+  }
+
+  /** The k nearest sites in the metric, sorted by the rule above. */
+  kNearest(x: number, y: number, k: number): Int32Array { return this.queries().kNearest(x, y, k); }
+}

@@ -1,0 +1,148 @@
+import { breakpointSide } from './exact-keys.js';
+
+/**
+ * The beach line: arcs left to right, as a treap (a binary search tree kept
+ * balanced by random heap priorities) threaded by a doubly linked list, all
+ * on typed arrays. The order is implicit: an arc's place is fixed when it is
+ * inserted next to another, and the search compares a site with breakpoints
+ * computed from the neighbours (exact, see exact-keys.ts). Priorities come
+ * from a fixed-seed generator, so the shape, like everything else, depends
+ * only on the input.
+ */
+export class BeachLine {
+  /** Site of each arc. */
+  readonly site: Int32Array;
+  /** Neighbouring arcs (-1 at the ends). */
+  readonly prev: Int32Array;
+  readonly next: Int32Array;
+  /** Per arc, the Delaunay edge record traced by the breakpoint on its right (-1: none). */
+  readonly rightEdge: Int32Array;
+  /** Per arc, the pending circle event in which it vanishes (-1: none). */
+  readonly event: Int32Array;
+  private readonly left: Int32Array;
+  private readonly right: Int32Array;
+  private readonly parent: Int32Array;
+  private readonly prio: Uint32Array;
+  root = -1;
+  count = 0;
+  private seed = 0x9e3779b9;
+
+  constructor(capacity: number) {
+    this.site = new Int32Array(capacity);
+    this.prev = new Int32Array(capacity);
+    this.next = new Int32Array(capacity);
+    this.rightEdge = new Int32Array(capacity);
+    this.event = new Int32Array(capacity);
+    this.left = new Int32Array(capacity);
+    this.right = new Int32Array(capacity);
+    this.parent = new Int32Array(capacity);
+    this.prio = new Uint32Array(capacity);
+  }
+
+  private newArc(site: number): number {
+    const z = this.count++;
+    // xorshift32: cheap, fixed seed, good enough to balance a treap.
+    let s = this.seed;
+    s ^= s << 13; s ^= s >>> 17; s ^= s << 5;
+    this.seed = s >>> 0;
+    this.prio[z] = this.seed;
+    this.site[z] = site;
+    this.prev[z] = this.next[z] = -1;
+    this.left[z] = this.right[z] = this.parent[z] = -1;
+    this.rightEdge[z] = -1;
+    this.event[z] = -1;
+    return z;
+  }
+
+  /** The first arc of an empty beach line. */
+  first(site: number): number {
+    const z = this.newArc(site);
+    this.root = z;
+    return z;
+  }
+
+  /** A new arc of `site` right after arc x. */
+  insertAfter(x: number, site: number): number {
+    const z = this.newArc(site);
+    const s = this.next[x];
+    this.prev[z] = x;
+    this.next[z] = s;
+    this.next[x] = z;
+    if (s >= 0) this.prev[s] = z;
+    // In the tree, z becomes the leftmost node of x's right subtree: x's
+    // right child if it has none, else the left child of x's old successor.
+    if (this.right[x] < 0) {
+      this.right[x] = z;
+      this.parent[z] = x;
+    } else {
+      this.left[s] = z;
+      this.parent[z] = s;
+    }
+    while (this.parent[z] >= 0 && this.prio[z] < this.prio[this.parent[z]]) this.rotateUp(z);
+    return z;
+  }
+
+  /** Removes arc z from the line. */
+  remove(z: number): void {
+    const L = this.left, R = this.right;
+    // Rotate z down until it is a leaf, keeping the heap order of the others.
+    for (;;) {
+      const l = L[z], r = R[z];
+      if (l < 0 && r < 0) break;
+      this.rotateUp(l < 0 ? r : r < 0 ? l : this.prio[l] < this.prio[r] ? l : r);
+    }
+    const p = this.parent[z];
+    if (p < 0) this.root = -1;
+    else if (L[p] === z) L[p] = -1;
+    else R[p] = -1;
+    const a = this.prev[z], b = this.next[z];
+    if (a >= 0) this.next[a] = b;
+    if (b >= 0) this.prev[b] = a;
+  }
+
+  private rotateUp(z: number): void {
+    const L = this.left, R = this.right, P = this.parent;
+    const p = P[z], g = P[p];
+    if (L[p] === z) {
+      const m = R[z];
+      L[p] = m;
+      if (m >= 0) P[m] = p;
+      R[z] = p;
+    } else {
+      const m = L[z];
+      R[p] = m;
+      if (m >= 0) P[m] = p;
+      L[z] = p;
+    }
+    P[p] = z;
+    P[z] = g;
+    if (g < 0) this.root = z;
+    else if (L[g] === p) L[g] = z;
+    else R[g] = z;
+  }
+
+  /**
+   * The arc above site (qx, qy) as the sweep line reaches it. A site exactly
+   * below a breakpoint goes to the arc on the right (one rule for all ties;
+   * the sweep then closes the empty arc left of it with a circle event).
+   */
+  locate(qx: number, qy: number, xy: Float64Array): number {
+    const site = this.site, prev = this.prev, next = this.next, L = this.left, R = this.right;
+    let z = this.root;
+    for (;;) {
+      const s = site[z];
+      const sx = xy[2 * s], sy = xy[2 * s + 1];
+      // Only a breakpoint with a subtree behind it is tested: a neighbour
+      // without one is an ancestor whose test already placed the site.
+      if (L[z] >= 0) {
+        const t = site[prev[z]];
+        if (breakpointSide(qx, qy, xy[2 * t], xy[2 * t + 1], sx, sy) < 0) { z = L[z]; continue; }
+      }
+      if (R[z] >= 0) {
+        const t = site[next[z]];
+        if (breakpointSide(qx, qy, sx, sy, xy[2 * t], xy[2 * t + 1]) >= 0) { z = R[z]; continue; }
+      }
+      return z;
+    }
+  }
+}

@@ -1,0 +1,151 @@
+import { describe, expect, it } from 'vitest';
+import { checkMesh, InputError, MetricVoronoiDiagram, voronoi, VoronoiDiagram } from '../../src/index.js';
+
+/** The cell polygon as [x, y] pairs. */
+const cell = (d: { cellPolygon(s: number): Float64Array }, s: number): number[][] => {
+  const p = Array.from(d.cellPolygon(s)), out: number[][] = [];
+  for (let i = 0; i < p.length; i += 2) out.push([p[i], p[i + 1]]);
+  return out;
+};
+
+const metricDiagram = (points: number[], metric: 'L1' | 'Linf', clip: { minX: number; minY: number; maxX: number; maxY: number }): MetricVoronoiDiagram => {
+  const d = voronoi(points, { metric, clip });
+  expect(d).toBeInstanceOf(MetricVoronoiDiagram);
+  expect(checkMesh(d.mesh).problems).toEqual([]);
+  return d as MetricVoronoiDiagram;
+};
+
+describe('worked examples (bisectors worked out by hand)', () => {
+  it('L1, two sites on a 45 degree diagonal: the tie quadrants are split by the Euclidean bisector x + y = 2', () => {
+    // d1 ties on {x <= 0, y >= 2} and {x >= 2, y <= 0}; the rule gives them to the Euclidean-nearer site,
+    // so the whole boundary is x + y = 2, which cuts the box [-2, 4]^2 through (4, -2) and (-2, 4).
+    const d = metricDiagram([0, 0, 2, 2], 'L1', { minX: -2, minY: -2, maxX: 4, maxY: 4 });
+    expect(cell(d, 0)).toEqual([[-2, -2], [4, -2], [-2, 4]]);
+    expect(cell(d, 1)).toEqual([[-2, 4], [4, -2], [4, 4]]);
+    expect(Array.from(d.cellAreas())).toEqual([18, 18]);
+    expect(d.cellNeighbors(0).sites).toEqual(Int32Array.of(1));
+    expect(d.cellNeighbors(0).lengths[0]).toBeCloseTo(6 * Math.SQRT2, 12);
+  });
+
+  it('L-infinity, an axis-parallel pair: the boundary is x = 1 all the way', () => {
+    // d_inf ties on the cones |y| >= max(|x|, |x - 2|); the Euclidean rule splits them at x = 1.
+    const d = metricDiagram([0, 0, 2, 0], 'Linf', { minX: -1, minY: -3, maxX: 3, maxY: 3 });
+    expect(cell(d, 0)).toEqual([[-1, -3], [1, -3], [1, 3], [-1, 3]]);
+    expect(Array.from(d.cellAreas())).toEqual([12, 12]);
+  });
+
+  it('L1, a general pair bends twice: vertical rays joined by a 45 degree segment', () => {
+    // Sites (0,0), (2,1): below y = 0 the boundary is x = 1.5, between y = 0 and 1 it is x + y = 1.5,
+    // above y = 1 it is x = 0.5.
+    const d = metricDiagram([0, 0, 2, 1], 'L1', { minX: -2, minY: -2, maxX: 4, maxY: 3 });
+    expect(cell(d, 0)).toEqual([[-2, -2], [1.5, -2], [1.5, 0], [0.5, 1], [0.5, 3], [-2, 3]]);
+    // Shoelace by hand: (7 + 3 + 1.5 + 1 + 7.5 + 10) / 2 = 15.
+    expect(d.cellAreas()[0]).toBe(15);
+    expect(d.cellAreas()[0] + d.cellAreas()[1]).toBe(30);
+    // Bends are mesh vertices of degree 2: the shared boundary is one neighbour with three edges.
+    expect(d.cellNeighbors(0).sites).toEqual(Int32Array.of(1));
+    expect(d.neighborCounts()).toEqual(Int32Array.of(1, 1));
+  });
+
+  it('L-infinity, a general pair: 45 degree rays joined by a vertical segment', () => {
+    // Sites (0,0), (2,1): for 0 <= y <= 1 the boundary is x = 1; above, x + y = 2; below, x + y = 1.
+    const d = metricDiagram([0, 0, 2, 1], 'Linf', { minX: -2, minY: -2, maxX: 4, maxY: 3 });
+    expect(cell(d, 0)).toEqual([[-2, -2], [3, -2], [1, 0], [1, 1], [-1, 3], [-2, 3]]);
+  });
+
+  it('a 2 x 2 grid under L-infinity meets at one vertex of degree 4', () => {
+    const d = metricDiagram([0, 0, 0, 2, 1, 0, 1, 2], 'Linf', { minX: -1, minY: -1, maxX: 2, maxY: 3 });
+    const xy = d.mesh.vertexXY;
+    let centre = -1;
+    for (let v = 0; v < d.mesh.vertexCount; v++) if (xy[2 * v] === 0.5 && xy[2 * v + 1] === 1) centre = v;
+    expect(centre).toBeGreaterThanOrEqual(0);
+    let degree = 0;
+    for (let e = 0; e < d.mesh.halfEdgeCount; e++) if (d.mesh.origin[e] === centre) degree++;
+    expect(degree).toBe(4);
+    expect(Array.from(d.cellAreas())).toEqual([3, 3, 3, 3]);
+  });
+
+  it('duplicates merge onto one site and the cells still partition the region', () => {
+    const d = metricDiagram([0, 0, 2, 2, 0, 0, 2, 2, 0, 0], 'L1', { minX: -2, minY: -2, maxX: 4, maxY: 4 });
+    expect(d.triangulation.siteCount).toBe(2);
+    expect(d.triangulation.mergedCount).toBe(3);
+    expect(d.totalArea()).toBe(36);
+  });
+
+  it('a site outside the clip region keeps the part of its cell that reaches in', () => {
+    const d = metricDiagram([0, 0, 3, 0], 'L1', { minX: -1, minY: -1, maxX: 2, maxY: 1 });
+    expect(cell(d, 1)).toEqual([[1.5, -1], [2, -1], [2, 1], [1.5, 1]]);
+    const far = metricDiagram([0, 0, 30, 0], 'L1', { minX: -1, minY: -1, maxX: 2, maxY: 1 });
+    expect(Array.from(far.sitesWithoutCell)).toEqual([1]);
+    expect(far.cellPolygon(1).length).toBe(0);
+  });
+});
+
+describe('queries under the metric and the tie rule', () => {
+  const d = voronoi([0, 0, 2, 2, 5, 0], { metric: 'L1' }) as MetricVoronoiDiagram;
+  it('nearest: metric first', () => {
+    // (3, 0): d1 = 3, 3, 2.
+    expect(d.nearest(3, 0)).toBe(2);
+  });
+  it('nearest: metric tie broken by Euclidean distance', () => {
+    // (-1, 2): d1 = 3 to both (0,0) and (2,2); Euclidean 5 vs 9.
+    expect(d.nearest(-1, 2)).toBe(0);
+    // (2, 0): d1 = 2 to (0,0) and (2,2), 3 to (5,0); Euclidean 4 and 4: the smaller (x, then y) wins.
+    expect(d.nearest(2, 0)).toBe(0);
+  });
+  it('kNearest sorts by the rule', () => {
+    expect(Array.from(d.kNearest(2, 0, 3))).toEqual([0, 1, 2]);
+    expect(Array.from(d.kNearest(4, 1, 3))).toEqual([2, 1, 0]);
+  });
+  it('cellAt is -1 outside the region', () => {
+    const r = d.region;
+    expect(d.cellAt(r[0] - 1, r[1])).toBe(-1);
+    expect(d.cellAt(1, 1)).toBe(d.nearest(1, 1));
+  });
+  it('nearestMany agrees with nearest', () => {
+    const q = [0.3, 1.7, 2, 0, 4.9, 0.1, -1, 2];
+    const many = d.nearestMany(q);
+    for (let i = 0; i < 4; i++) expect(many[i]).toBe(d.nearest(q[2 * i], q[2 * i + 1]));
+  });
+});
+
+describe('metric option', () => {
+  it('L2, 2 and the default build the Euclidean diagram', () => {
+    for (const metric of [undefined, 'L2', 2] as const) expect(voronoi([0, 0, 1, 1], { metric })).toBeInstanceOf(VoronoiDiagram);
+  });
+  it('1, Infinity and the L-infinity spellings route to the exact engines', () => {
+    const pts = [0, 0, 2, 1, 3, 5];
+    const a = voronoi(pts, { metric: 1 }) as MetricVoronoiDiagram, b = voronoi(pts, { metric: 'L1' }) as MetricVoronoiDiagram;
+    expect(a.metric).toBe('L1');
+    expect(Array.from(a.cellAreas())).toEqual(Array.from(b.cellAreas()));
+    for (const metric of [Infinity, 'Linf', 'L∞'] as const) expect((voronoi(pts, { metric }) as MetricVoronoiDiagram).metric).toBe('Linf');
+  });
+  it.each([0.5, 0, -1, NaN, -Infinity, 'L3', 'l1', null, {}, '1'])('metric %s is a bad option', (metric) => {
+    const call = () => voronoi([0, 0, 1, 1], { metric: metric as never });
+    expect(call).toThrow(InputError);
+    try { call(); } catch (e) {
+      expect((e as InputError).code).toBe('bad-option');
+      expect((e as InputError).field).toBe('metric');
+    }
+  });
+  it.each([0, -1e-9, NaN, Infinity, '0.1', null])('tolerance %s is a bad option', (tolerance) => {
+    const call = () => voronoi([0, 0, 1, 1], { metric: 'L1', tolerance: tolerance as never });
+    expect(call).toThrow(InputError);
+    try { call(); } catch (e) {
+      expect((e as InputError).code).toBe('bad-option');
+      expect((e as InputError).field).toBe('tolerance');
+    }
+  });
+  it('a Minkowski p other than 1, 2 and Infinity is refused with a typed error (not implemented yet)', () => {
+    for (const metric of [1.5, 3]) {
+      try {
+        voronoi([0, 0, 1, 1], { metric });
+        expect.unreachable();
+      } catch (e) {
+        expect(e).toBeInstanceOf(InputError);
+        expect((e as InputError).code).toBe('unsupported-option');
+        expect((e as InputError).field).toBe('metric');
+      }
+    }
+  });
+});
