@@ -129,7 +129,8 @@ class DiagramBuilder {
     this.origin = new Int32Array(room);
     this.twin = new Int32Array(room);
     this.face = new Int32Array(room);
-    this.next = new Int32Array(room).fill(-1);
+    // clipEdges writes next for every half-edge it keeps; only the room after them starts at "none".
+    this.next = new Int32Array(room).fill(-1, total);
   }
 
   /** A new point where an edge s→e is cut by side j, at parameter t. */
@@ -234,7 +235,8 @@ class DiagramBuilder {
    * ε, their squared lengths 4ε, the numerator cy·|b|² − by·|c|² then at
    * most 7ε(|cy||b|² + |by||c|²), and the denominator d (robust-predicates'
    * estimate of twice the orientation) 4ε(|bx cy| + |by cx|)/|d| relative;
-   * adding the corner back rounds once more. Only centres that agree within
+   * multiplying by the rounded reciprocal of d costs 2ε where a division
+   * would cost ε, and adding the corner back rounds once more. Only centres that agree within
    * their bounds are asked the exact incircle question.
    */
   private centres(vert: Int32Array, tw: Int32Array, T: number): number[] {
@@ -260,14 +262,15 @@ class DiagramBuilder {
       const wb = w === null ? 0 : w[b] - w[a], wc = w === null ? 0 : w[c] - w[a];
       const bl = bx * bx + by * by - wb, cl = cx * cx + cy * cy - wc;
       const blMag = bx * bx + by * by + Math.abs(wb), clMag = cx * cx + cy * cy + Math.abs(wc);
-      const ux = (cy * bl - by * cl) / d, uy = (bx * cl - cx * bl) / d;
+      // One division: the reciprocal, then products (divisions dominated this loop).
+      const inv = 1 / d, ai = Math.abs(inv);
+      const ux = (cy * bl - by * cl) * inv, uy = (bx * cl - cx * bl) * inv;
       const shortest = Math.min(bx * bx + by * by, cx * cx + cy * cy, (cx - bx) ** 2 + (cy - by) ** 2);
       if (shortest < this.closest) { this.closest = shortest; this.closestTriangle = t; }
       const X = ax + ux, Y = ay + uy;
-      const ad = Math.abs(d);
-      const rel = (8 * eps * (Math.abs(bx * cy) + Math.abs(by * cx))) / ad;
-      const ex = (lengthErr * (Math.abs(cy) * blMag + Math.abs(by) * clMag)) / ad + Math.abs(ux) * (rel + 2 * eps) + eps * Math.abs(X);
-      const ey = (lengthErr * (Math.abs(bx) * clMag + Math.abs(cx) * blMag)) / ad + Math.abs(uy) * (rel + 2 * eps) + eps * Math.abs(Y);
+      const rel = 8 * eps * (Math.abs(bx * cy) + Math.abs(by * cx)) * ai;
+      const ex = lengthErr * (Math.abs(cy) * blMag + Math.abs(by) * clMag) * ai + Math.abs(ux) * (rel + 3 * eps) + eps * Math.abs(X);
+      const ey = lengthErr * (Math.abs(bx) * clMag + Math.abs(cx) * blMag) * ai + Math.abs(uy) * (rel + 3 * eps) + eps * Math.abs(Y);
       P[2 * t] = X;
       P[2 * t + 1] = Y;
       const err = (error[t] = 4 * Math.max(ex, ey));
@@ -341,7 +344,7 @@ class DiagramBuilder {
         const ix = inside[vx], iy = inside[vy];
         if (ix !== 0 && iy !== 0 && (ix & iy) !== 2) {
           origin[x] = vy;
-          if (ix === 1) next[x] = this.rotate(x, tw, T, vertexOf);
+          next[x] = ix === 1 ? this.rotate(x, tw, T, vertexOf) : -1;
           if ((ix === 2 || iy === 2) && x < y) this.touching.push(x);
           continue;
         }
@@ -350,8 +353,8 @@ class DiagramBuilder {
         if (!this.clipBisector(vert[x], vert[nextOf(x)], vy, vx)) { origin[x] = origin[y] = -1; continue; }
         origin[x] = this.clipStart;
         origin[y] = this.clipEnd;
-        if (this.clipEnd === vx && ix === 1) next[x] = this.rotate(x, tw, T, vertexOf);
-        if (this.clipStart === vy && iy === 1) next[y] = this.rotate(y, tw, T, vertexOf);
+        next[x] = this.clipEnd === vx && ix === 1 ? this.rotate(x, tw, T, vertexOf) : -1;
+        next[y] = this.clipStart === vy && iy === 1 ? this.rotate(y, tw, T, vertexOf) : -1;
         this.touching.push(x);
       } else {
         // A hull edge a→b: its Voronoi edge is a ray from the circumcentre, outwards (right of a→b).
@@ -362,7 +365,8 @@ class DiagramBuilder {
         if (!this.clipBisector(vert[x], vert[nextOf(x)], -1, vx)) { origin[x] = origin[g] = -1; continue; }
         origin[x] = this.clipStart;
         origin[g] = this.clipEnd;
-        if (this.clipEnd === vx && inside[vx] === 1) next[x] = this.rotate(x, tw, T, vertexOf);
+        next[g] = -1;
+        next[x] = this.clipEnd === vx && inside[vx] === 1 ? this.rotate(x, tw, T, vertexOf) : -1;
         this.touching.push(x);
       }
     }
@@ -416,6 +420,7 @@ class DiagramBuilder {
     this.checkSpacing(shortest, () => [Math.min(path[at], path[at + 1]), Math.max(path[at], path[at + 1])]);
     if (this.weights !== null && lines > 1) this.checkStrips(path);
     this.allocate(2 * lines);
+    this.next.fill(-1);
     const { origin, twin, face } = this;
     for (let i = 0; i < lines; i++) {
       const a = path[i], b = path[i + 1];

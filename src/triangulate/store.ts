@@ -400,7 +400,14 @@ export class TriangleStore {
       if (incircle(
         xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1],
         xy[2 * p], xy[2 * p + 1], xy[2 * d], xy[2 * d + 1]) <= 0) continue;
-      this.flip(e);
+      const x1 = tw[e1], x2 = tw[e2], y1 = tw[f1], y2 = tw[f2];
+      // (a,b,p) + (b,a,d) become (p,d,b) + (d,p,a); the same as flip(e), written out in this hottest loop.
+      v[e] = p; v[e1] = d; v[e2] = b;
+      v[f] = d; v[f1] = p; v[f2] = a;
+      tw[e1] = y2; tw[y2] = e1;
+      tw[e2] = x1; tw[x1] = e2;
+      tw[f1] = x2; tw[x2] = f1;
+      tw[f2] = y1; tw[y1] = f2;
       if (depth + 2 > stack.length) {
         const grown = new Int32Array(2 * stack.length);
         grown.set(stack);
