@@ -153,6 +153,19 @@ export class Triangulation {
     return tri;
   }
 
+  /**
+   * @internal Wraps a store filled elsewhere (Fortune's sweep): real
+   * triangles 0..real-1 first, then one ghost per hull edge, over site
+   * numbers (store.xy is sites.xy), as fromMesh lays them out.
+   */
+  static fromStore(sites: SiteSet, store: TriangleStore, real: number): Triangulation {
+    const tri = new Triangulation(sites, null);
+    tri.store = store;
+    tri.dimension = 2;
+    tri.real = real;
+    return tri;
+  }
+
   /** Distinct sites, interleaved x, y, numbered by first appearance in the input. */
   get siteXY(): Float64Array {
     if (this.bySite) return this.bySite;

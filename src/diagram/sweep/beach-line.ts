@@ -25,6 +25,14 @@ export class BeachLine {
   private readonly prio: Uint32Array;
   root = -1;
   count = 0;
+  /**
+   * Arcs removed, for reuse: the live arcs (about the square root of the
+   * sites for spread-out input) then keep to a few small ranges of ids that
+   * stay in cache, instead of drifting across arrays sized for every arc
+   * ever made. Ids are never compared, so reuse changes no decision.
+   */
+  private readonly free: Int32Array;
+  private freeCount = 0;
   private seed = 0x9e3779b9;
 
   constructor(capacity: number) {
@@ -37,10 +45,11 @@ export class BeachLine {
     this.right = new Int32Array(capacity);
     this.parent = new Int32Array(capacity);
     this.prio = new Uint32Array(capacity);
+    this.free = new Int32Array(capacity);
   }
 
   private newArc(site: number): number {
-    const z = this.count++;
+    const z = this.freeCount > 0 ? this.free[--this.freeCount] : this.count++;
     // xorshift32: cheap, fixed seed, good enough to balance a treap.
     let s = this.seed;
     s ^= s << 13; s ^= s >>> 17; s ^= s << 5;
@@ -98,6 +107,9 @@ export class BeachLine {
     const a = this.prev[z], b = this.next[z];
     if (a >= 0) this.next[a] = b;
     if (b >= 0) this.prev[b] = a;
+    // No site: a hint still naming this arc is seen to be stale (see walk()).
+    this.site[z] = -1;
+    this.free[this.freeCount++] = z;
   }
 
   private rotateUp(z: number): void {
@@ -119,6 +131,40 @@ export class BeachLine {
     if (g < 0) this.root = z;
     else if (L[g] === p) L[g] = z;
     else R[g] = z;
+  }
+
+  /**
+   * The arc above site (qx, qy), found by walking along the line from arc z
+   * (a live arc near it), or -1 after `steps` breakpoints without finding
+   * it. The breakpoints are in order along the line and each test is exact,
+   * so the walk ends at the arc locate() finds, by the same tie rule.
+   */
+  walk(z: number, qx: number, qy: number, xy: Float64Array, steps: number): number {
+    const site = this.site, prev = this.prev, next = this.next;
+    let s = site[z], sx = xy[2 * s], sy = xy[2 * s + 1];
+    let l = prev[z];
+    if (l >= 0) {
+      let t = site[l];
+      if (breakpointSide(qx, qy, xy[2 * t], xy[2 * t + 1], sx, sy) < 0) {
+        // Left of z: go left until the breakpoint on the left is not right of q.
+        for (;;) {
+          z = l; s = t; sx = xy[2 * s]; sy = xy[2 * s + 1];
+          l = prev[z];
+          if (l < 0) return z;
+          t = site[l];
+          if (breakpointSide(qx, qy, xy[2 * t], xy[2 * t + 1], sx, sy) >= 0) return z;
+          if (--steps === 0) return -1;
+        }
+      }
+    }
+    for (;;) {
+      const r = next[z];
+      if (r < 0) return z;
+      const t = site[r];
+      if (breakpointSide(qx, qy, sx, sy, xy[2 * t], xy[2 * t + 1]) < 0) return z;
+      if (--steps === 0) return -1;
+      z = r; sx = xy[2 * t]; sy = xy[2 * t + 1];
+    }
   }
 
   /**

@@ -12,6 +12,7 @@
  */
 import { bigSign, commonIntegers } from '../../core/exact.js';
 import { exactBegin, exactOk, xAdd, xMul, xSub } from '../../core/exact-double.js';
+import { orient } from '../../core/predicates.js';
 
 /** Unit roundoff of binary64. */
 const U = 2 ** -53;
@@ -142,17 +143,29 @@ const SCALE = 1 + 2 ** -30;
 const N_REL = 8 * U;
 const D_REL = 5 * U;
 
-/** key, its error bound, x, its error bound of the event (a, b, c), written to out[o..o+3]. */
+/**
+ * Whether a, b, c turn counter-clockwise (exactly: the breakpoints around
+ * b's arc converge); if so, the key, its error bound, x and its error bound
+ * of their event, written to out[o..o+3]. D is twice the orientation, so
+ * its filter decides most turns before the rest of the key is computed.
+ */
 export function circleEventKey(
   ax: number, ay: number, bx: number, by: number, cx: number, cy: number, out: Float64Array, o: number,
-): void {
+): boolean {
   const bxr = bx - ax, byr = by - ay, cxr = cx - ax, cyr = cy - ay;
+  const abx = Math.abs(bxr), aby = Math.abs(byr), acx = Math.abs(cxr), acy = Math.abs(cyr);
+  const D = 2 * (bxr * cyr - byr * cxr);
+  const eD = D_REL * 2 * (abx * acy + aby * acx);
+  const aD = Math.abs(D);
+  if (!(aD > eD)) {
+    if (!(orient(ax, ay, bx, by, cx, cy) > 0)) return false;
+    out[o] = ay; out[o + 1] = Infinity; out[o + 2] = ax; out[o + 3] = Infinity;
+    return true;
+  }
+  if (D < 0) return false;
   const B2 = bxr * bxr + byr * byr, C2 = cxr * cxr + cyr * cyr;
   const Nx = cyr * B2 - byr * C2, Ny = bxr * C2 - cxr * B2;
-  const D = 2 * (bxr * cyr - byr * cxr);
-  const abx = Math.abs(bxr), aby = Math.abs(byr), acx = Math.abs(cxr), acy = Math.abs(cyr);
   const eNx = N_REL * (acy * B2 + aby * C2), eNy = N_REL * (abx * C2 + acx * B2);
-  const eD = D_REL * 2 * (abx * acy + aby * acx);
   const aNx = Math.abs(Nx), aNy = Math.abs(Ny);
   const X = Nx * Nx + Ny * Ny;
   const eX = 2 * (aNx * eNx + aNy * eNy) + eNx * eNx + eNy * eNy + 3 * U * X + ETA;
@@ -161,17 +174,13 @@ export function circleEventKey(
   const T = Ny + S;
   const aT = Math.abs(T);
   const eT = eNy + eS + U * aT;
-  const aD = Math.abs(D);
-  if (!(aD > eD)) {
-    out[o] = ay; out[o + 1] = Infinity; out[o + 2] = ax; out[o + 3] = Infinity;
-    return;
-  }
   const ky = T / D, kx = Nx / D, q = aD * (aD - eD);
   const key = ay + ky, x = ax + kx;
   out[o] = key;
   out[o + 1] = ((aT * eD + aD * eT) / q + U * (Math.abs(ky) + Math.abs(key)) + ETA) * SCALE;
   out[o + 2] = x;
   out[o + 3] = ((aNx * eD + aD * eNx) / q + U * (Math.abs(kx) + Math.abs(x)) + ETA) * SCALE;
+  return true;
 }
 
 /** Exact Nx, Ny, D (times 2^-E factors that cancel in every sign below) of (a, b, c) from ints[i..i+5]. */

@@ -1,9 +1,10 @@
-import TinyQueue from 'tinyqueue';
-import { inCircle, orient } from '../../core/predicates.js';
+import { inCircle } from '../../core/predicates.js';
 import { radixSort } from '../../core/hilbert.js';
 import { HalfEdgeMesh } from '../../mesh/mesh.js';
-import { Triangulation, triangleMesh } from '../../triangulate/triangulation.js';
+import { Triangulation } from '../../triangulate/triangulation.js';
+import { GHOST, TriangleStore } from '../../triangulate/store.js';
 import { BeachLine } from './beach-line.js';
+import { EventQueue, type EventTies } from './event-queue.js';
 import { circleEventKey, circleVersusCircleExact, circleVersusSiteExact } from './exact-keys.js';
 
 /**
@@ -23,7 +24,20 @@ import { circleEventKey, circleVersusCircleExact, circleVersusSiteExact } from '
  * y) starts the beach line as vertical strips, in x order.
  */
 export function sweepTriangulation(xy: Float64Array, n: number, siteOfInput: Int32Array): Triangulation {
-  return Triangulation.fromMesh(new Sweep(xy, n).run(), siteOfInput);
+  const sweep = new Sweep(xy, n);
+  sweep.run();
+  const sites = { xy: xy.slice(0, 2 * n), count: n, siteOfInput, curveOrder: new Uint32Array(0) };
+  if (sweep.triCount === 0) return Triangulation.fromMesh(collinearMesh(sites.xy), siteOfInput);
+  return Triangulation.fromStore(sites, sweep.closeHull(sites.xy), sweep.triCount);
+}
+
+/** The mesh of sites without a triangle (one or collinear): its vertices only, the rest is fromMesh's. */
+function collinearMesh(vertexXY: Float64Array): HalfEdgeMesh {
+  const none = new Int32Array(0);
+  return new HalfEdgeMesh({
+    kind: 'delaunay', vertexXY, origin: none, twin: none, next: none, face: none,
+    faceEdge: Int32Array.of(-1), faceSite: Int32Array.of(-1), outerFace: 0,
+  });
 }
 
 /**
@@ -70,19 +84,26 @@ function grownI32(a: Int32Array, need: number): Int32Array {
   return b;
 }
 
-class Sweep {
+class Sweep implements EventTies {
   /** The sites' coordinates as given (site numbers). */
   private readonly siteXY: Float64Array;
   /**
    * The coordinates in sweep order: the sweep numbers sites by rank in that
    * order, so that the arcs of the beach line, all sites near the sweep line,
-   * sit together in memory. Ranks become site numbers again in toMesh().
+   * sit together in memory. Ranks become site numbers again in closeHull().
    */
   private xy: Float64Array;
-  private siteOfRank: Uint32Array = new Uint32Array(0);
+  siteOfRank: Int32Array = new Int32Array(0);
   private readonly n: number;
   private readonly beach: BeachLine;
-  // Circle events: the vanishing arc, its sites, and key/err/x/err (circleEventKey).
+  /**
+   * Circle events, by slot: the vanishing arc, its sites, key/err/x/err
+   * (circleEventKey), and the creation number that breaks exact ties. A slot
+   * is reused once its event has left the heap, so the slots in use stay
+   * about as few as the arcs (most events are false alarms, cancelled soon)
+   * and in cache; the creation number, not the slot, keeps the order.
+   */
+  private evStamp: Int32Array = new Int32Array(1024);
   private evArc: Int32Array = new Int32Array(1024);
   private evSites: Int32Array = new Int32Array(3 * 1024);
   private evKey: Float64Array = new Float64Array(4 * 1024);
@@ -100,15 +121,40 @@ class Sweep {
    * compare, which the x filter usually decides at once.
    */
   private evRow: Int32Array = new Int32Array(1024);
+  /**
+   * Slots on a class or row tree: never reused, so that the trees keep
+   * meaning one circle or one key (they exist only where sites are
+   * cocircular or keys equal).
+   */
+  private evPinned: Uint8Array = new Uint8Array(1024);
+  private freeSlots: Int32Array = new Int32Array(1024);
+  private freeCount = 0;
+  /** Slots ever used. */
   private evCount = 0;
-  private queue: TinyQueue<number>;
-  private readonly order: (i: number, j: number) => number;
+  /**
+   * Where to start looking for a new site's arc: per strip of x, the arc
+   * last placed or joined there, and its site (the arc is stale once its
+   * site changed). From there the walk along the line is a step or two for
+   * spread-out sites, where the tree search tests a breakpoint per level;
+   * a walk longer than 32 steps (clusters crowd a strip) gives way to the
+   * tree, so the worst case stays logarithmic.
+   */
+  private hintArc: Int32Array = new Int32Array(0);
+  private hintSite: Int32Array = new Int32Array(0);
+  private hintX0 = 0;
+  private hintScale = 0;
+  /** Events ever made. */
+  private created = 0;
+  private readonly queue: EventQueue;
   /** Cancelled events still in the heap. */
   private dead = 0;
-  // Triangles, 3 sites each; half-edge 3t+j runs from site j to site j+1.
-  private tri: Int32Array = new Int32Array(3 * 1024);
-  private triCount = 0;
-  private twin: Int32Array = new Int32Array(3 * 1024);
+  /**
+   * Triangles, 3 ranks each, written straight into the triangulation's
+   * store (half-edge 3t+j runs from corner j to corner j+1); the ghosts
+   * follow them in closeHull().
+   */
+  private store: TriangleStore;
+  triCount = 0;
   // Edge records: one per Delaunay edge traced by breakpoints, holding the first half-edge that closed it.
   private edgeHalf: Int32Array = new Int32Array(1024);
   private edgeCount = 0;
@@ -118,28 +164,31 @@ class Sweep {
     this.xy = xy;
     this.n = n;
     this.beach = new BeachLine(Math.max(2, 2 * n));
-    // Room for the usual counts (2n triangles, 3n edges, about 3n events), grown if ever exceeded.
-    this.tri = new Int32Array(6 * n + 3);
-    this.twin = new Int32Array(6 * n + 3);
+    // n sites make T triangles and h hull edges with T + h = 2n - 2: all the room the store needs.
+    this.store = new TriangleStore(xy, Math.max(1, 2 * n - 2));
+    // Room for the usual 3n edge records, grown if ever exceeded.
     this.edgeHalf = new Int32Array(3 * n + 1);
-    this.growEvents(3 * n + 1);
-    // The floating filter inline, so that the heap's hot comparator stays small.
-    this.order = (i, j) => {
-      const k = this.evKey, oi = 4 * i, oj = 4 * j;
-      const dy = k[oi] - k[oj], ey = k[oi + 1] + k[oj + 1];
-      return dy > ey || -dy > ey ? dy : this.compareEvents(i, j);
-    };
-    this.queue = new TinyQueue<number>([], this.order);
+    this.queue = new EventQueue(this, 1024);
   }
 
-  run(): HalfEdgeMesh {
+  run(): void {
     const n = this.n;
-    const site = (this.siteOfRank = sweepOrder(this.siteXY, n));
-    const xy = (this.xy = new Float64Array(2 * n));
+    const order = sweepOrder(this.siteXY, n), site = (this.siteOfRank = new Int32Array(order.buffer, order.byteOffset, n));
+    const xy = (this.xy = this.store.xy = new Float64Array(2 * n));
+    let lo = Infinity, hi = -Infinity;
     for (let r = 0; r < n; r++) {
-      xy[2 * r] = this.siteXY[2 * site[r]];
+      const x = (xy[2 * r] = this.siteXY[2 * site[r]]);
       xy[2 * r + 1] = this.siteXY[2 * site[r] + 1];
+      if (x < lo) lo = x;
+      if (x > hi) hi = x;
     }
+    // Fewer strips than arcs, so that circle events refresh most strips before their arc is gone: with
+    // half the square root, uniform sites cost about 3.5 breakpoint tests each (measured at 1e5 and 1e6).
+    const strips = Math.ceil(0.5 * Math.sqrt(n));
+    this.hintArc = new Int32Array(strips).fill(-1);
+    this.hintSite = new Int32Array(strips);
+    this.hintX0 = lo;
+    this.hintScale = hi > lo ? strips / (hi - lo) : 0;
     // The first row: vertical strips left to right, their breakpoints run down to infinity.
     let arc = this.beach.first(0);
     let i = 1;
@@ -149,25 +198,31 @@ class Sweep {
     }
     for (;;) {
       const queue = this.queue;
-      while (queue.length > 0 && !this.evLive[queue.peek()!]) { queue.pop(); this.dead--; }
-      const top = queue.length > 0 ? queue.peek()! : -1;
+      while (queue.length > 0 && !this.evLive[queue.peek()]) { this.release(queue.pop()); this.dead--; }
+      const top = queue.length > 0 ? queue.peek() : -1;
       if (i < n && (top < 0 || this.siteFirst(i, top))) this.siteEvent(i++);
-      else if (top >= 0) this.circleEvent(queue.pop()!);
+      else if (top >= 0) {
+        const ev = queue.pop();
+        this.circleEvent(ev);
+        this.release(ev);
+      }
       else break;
     }
-    return this.toMesh();
   }
 
   /** Every per-event array gets exactly `cap` entries (at least its current size), so that one length governs them all. */
   private growEvents(want: number): void {
     const cap = Math.max(want, this.evLive.length);
     const i32 = (a: Int32Array, per: number): Int32Array => { const b = new Int32Array(per * cap); b.set(a); return b; };
+    this.evStamp = i32(this.evStamp, 1);
     this.evArc = i32(this.evArc, 1);
+    this.freeSlots = i32(this.freeSlots, 1);
     this.evSites = i32(this.evSites, 3);
     this.evClass = i32(this.evClass, 1);
     this.evRow = i32(this.evRow, 1);
     const k = new Float64Array(4 * cap); k.set(this.evKey); this.evKey = k;
     const l = new Uint8Array(cap); l.set(this.evLive); this.evLive = l;
+    const p = new Uint8Array(cap); p.set(this.evPinned); this.evPinned = p;
   }
 
   private newEdge(): number {
@@ -182,15 +237,20 @@ class Sweep {
     if (other < 0) {
       this.edgeHalf[r] = h;
     } else {
-      this.twin[h] = other;
-      this.twin[other] = h;
+      const tw = this.store.twin;
+      tw[h] = other;
+      tw[other] = h;
       this.edgeHalf[r] = -2;
     }
   }
 
   private siteEvent(s: number): void {
     const b = this.beach, xy = this.xy;
-    const x = b.locate(xy[2 * s], xy[2 * s + 1], xy);
+    const qx = xy[2 * s], qy = xy[2 * s + 1];
+    const strip = this.stripOf(qx);
+    const h = this.hintArc[strip];
+    let x = h >= 0 && b.site[h] === this.hintSite[strip] ? b.walk(h, qx, qy, xy, 32) : -1;
+    if (x < 0) x = b.locate(qx, qy, xy);
     this.cancel(x);
     // x becomes x, s, x' : both new breakpoints trace the one edge between x's site and s.
     const e = this.newEdge();
@@ -199,6 +259,8 @@ class Sweep {
     b.rightEdge[x2] = b.rightEdge[x];
     b.rightEdge[x] = e;
     b.rightEdge[q] = e;
+    this.hintArc[strip] = q;
+    this.hintSite[strip] = s;
     this.check(x);
     this.check(x2);
   }
@@ -208,14 +270,12 @@ class Sweep {
     const mid = this.evArc[ev];
     const left = b.prev[mid], right = b.next[mid];
     const t = this.triCount++;
-    if (3 * this.triCount > this.tri.length) {
-      this.tri = grownI32(this.tri, 3 * this.triCount);
-      this.twin = grownI32(this.twin, 3 * this.triCount);
-    }
-    this.tri[3 * t] = b.site[left];
-    this.tri[3 * t + 1] = b.site[mid];
-    this.tri[3 * t + 2] = b.site[right];
-    this.twin[3 * t] = this.twin[3 * t + 1] = this.twin[3 * t + 2] = -1;
+    this.store.reserve(this.triCount);
+    const v = this.store.vert, tw = this.store.twin;
+    v[3 * t] = b.site[left];
+    v[3 * t + 1] = b.site[mid];
+    v[3 * t + 2] = b.site[right];
+    tw[3 * t] = tw[3 * t + 1] = tw[3 * t + 2] = -1;
     this.closeEdge(b.rightEdge[left], 3 * t);
     this.closeEdge(b.rightEdge[mid], 3 * t + 1);
     const e = this.newEdge();
@@ -224,10 +284,20 @@ class Sweep {
     this.evLive[ev] = 0;
     b.event[mid] = -1;
     b.remove(mid);
+    // Where the arc vanished its neighbours meet: a fresh hint for that strip.
+    const strip = this.stripOf(this.evKey[4 * ev + 2]);
+    this.hintArc[strip] = left;
+    this.hintSite[strip] = b.site[left];
     this.cancel(left);
     this.cancel(right);
     this.check(left);
     this.check(right);
+  }
+
+  /** The hint strip of x (any number, even NaN, gives a valid strip). */
+  private stripOf(x: number): number {
+    const f = (x - this.hintX0) * this.hintScale, last = this.hintArc.length - 1;
+    return f >= 0 ? (f < last ? f | 0 : last) : 0;
   }
 
   private cancel(arc: number): void {
@@ -238,8 +308,7 @@ class Sweep {
       // Cancelled events far ahead of the line would pile up in the heap (most false alarms
       // are); once they are the majority, heapify the live ones again: linear, so amortised O(1).
       if (++this.dead > 1024 && 2 * this.dead > this.queue.length) {
-        const live = this.queue.data.filter((e) => this.evLive[e] === 1);
-        this.queue = new TinyQueue<number>(live, this.order);
+        this.queue.keepLive(this.evLive, this);
         this.dead = 0;
       }
     }
@@ -253,17 +322,20 @@ class Sweep {
     const sa = b.site[l], sb = b.site[m], sc = b.site[r];
     if (sa === sc) return;
     const ax = xy[2 * sa], ay = xy[2 * sa + 1], bx = xy[2 * sb], by = xy[2 * sb + 1], cx = xy[2 * sc], cy = xy[2 * sc + 1];
-    if (!(orient(ax, ay, bx, by, cx, cy) > 0)) return;
-    const ev = this.evCount++;
+    // The key goes straight into the next free slot, which is taken only if the breakpoints converge.
+    const reuse = this.freeCount > 0, ev = reuse ? this.freeSlots[this.freeCount - 1] : this.evCount;
     if (ev === this.evLive.length) this.growEvents(2 * ev);
+    if (!circleEventKey(ax, ay, bx, by, cx, cy, this.evKey, 4 * ev)) return;
+    if (reuse) this.freeCount--;
+    else this.evCount++;
+    this.evStamp[ev] = this.created++;
     this.evArc[ev] = m;
     this.evSites[3 * ev] = sa; this.evSites[3 * ev + 1] = sb; this.evSites[3 * ev + 2] = sc;
-    circleEventKey(ax, ay, bx, by, cx, cy, this.evKey, 4 * ev);
     this.evLive[ev] = 1;
     this.evClass[ev] = ev;
     this.evRow[ev] = ev;
     b.event[m] = ev;
-    this.queue.push(ev);
+    this.queue.push(ev, this.evKey[4 * ev], this.evKey[4 * ev + 1]);
   }
 
   /** Whether site s comes before circle event ev (see the tie rule above). */
@@ -279,13 +351,19 @@ class Sweep {
     return circleVersusSiteExact(xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], xy[2 * c], xy[2 * c + 1], sx, sy) > 0;
   }
 
+  /** A slot whose event has left the heap: free for the next event, unless a tree holds it. */
+  release(ev: number): void {
+    if (this.evPinned[ev] === 0) this.freeSlots[this.freeCount++] = ev;
+  }
+
   private classOf(ev: number): number { return root(this.evClass, ev); }
   private rowOf(ev: number): number { return root(this.evRow, ev); }
 
   /** Heap order of two circle events the filter could not separate: y, then x, then creation. */
-  private compareEvents(i: number, j: number): number {
+  compareEvents(i: number, j: number): number {
     const ci = this.classOf(i), cj = this.classOf(j);
-    if (ci === cj) return i - j;
+    const ti = this.evStamp[i], tj = this.evStamp[j];
+    if (ci === cj) return ti - tj;
     const ri = this.rowOf(i), rj = this.rowOf(j);
     if (ri === rj) {
       const k = this.evKey, dx = k[4 * i + 2] - k[4 * j + 2], ex = k[4 * i + 3] + k[4 * j + 3];
@@ -301,61 +379,64 @@ class Sweep {
         inCircle(ax, ay, bx, by, cx, cy, xy[2 * q], xy[2 * q + 1]) === 0 &&
         inCircle(ax, ay, bx, by, cx, cy, xy[2 * r], xy[2 * r + 1]) === 0) {
       this.evClass[Math.max(ci, cj)] = Math.min(ci, cj);
-      return i - j;
+      this.evPinned[ci] = this.evPinned[cj] = 1;
+      return ti - tj;
     }
     const s = circleVersusCircleExact(
       xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1], xy[2 * c], xy[2 * c + 1],
       xy[2 * p], xy[2 * p + 1], xy[2 * q], xy[2 * q + 1], xy[2 * r], xy[2 * r + 1]);
     // +-1: equal keys, told apart by x.
-    if (s === 1 || s === -1) this.evRow[Math.max(ri, rj)] = Math.min(ri, rj);
-    return s !== 0 ? s : i - j;
+    if (s === 1 || s === -1) {
+      this.evRow[Math.max(ri, rj)] = Math.min(ri, rj);
+      this.evPinned[ri] = this.evPinned[rj] = 1;
+    }
+    return s !== 0 ? s : ti - tj;
   }
 
   /**
-   * The triangles as a Delaunay half-edge mesh: triangle faces first, then
-   * one outer half-edge for every edge record closed on one side only (a
-   * hull edge), linked into the clockwise outer cycle.
+   * Adds one ghost per edge record closed on one side only (a hull edge),
+   * in record order, each ghost's outer side linked to the next one along
+   * the hull: the layout Triangulation.fromMesh makes of the mesh the sweep
+   * used to emit, so that the diagram stays the same.
    */
-  private toMesh(): HalfEdgeMesh {
-    const n = this.n, T = this.triCount, len = 3 * T, site = this.siteOfRank;
-    const vertexXY = this.siteXY.slice(0, 2 * n);
-    if (T === 0) {
-      const none = new Int32Array(0);
-      return new HalfEdgeMesh({
-        kind: 'delaunay', vertexXY, origin: none, twin: none, next: none, face: none,
-        faceEdge: Int32Array.of(-1), faceSite: Int32Array.of(-1), outerFace: 0,
-      });
-    }
+  closeHull(siteXY: Float64Array): TriangleStore {
+    const T = this.triCount, len = 3 * T;
     let hull = 0;
-    for (let r = 0; r < this.edgeCount; r++) {
-      const h = this.edgeHalf[r];
-      if (h >= 0) hull++;
-    }
-    const total = len + hull;
-    const origin = new Int32Array(total), twin = new Int32Array(total), next = new Int32Array(total), face = new Int32Array(total);
-    for (let e = 0; e < len; e++) {
-      origin[e] = site[this.tri[e]];
-      twin[e] = this.twin[e];
-      next[e] = e % 3 === 2 ? e - 2 : e + 1;
-      face[e] = (e / 3) | 0;
-    }
-    const outerFrom = new Int32Array(n).fill(-1);
-    let H = len;
+    for (let r = 0; r < this.edgeCount; r++) if (this.edgeHalf[r] >= 0) hull++;
+    const store = this.store;
+    store.reserve(T + hull);
+    const v = store.vert, tw = store.twin;
+    // Ghost g of hull half-edge h (u -> v) is (v, u, GHOST); outerFrom[v] = g.
+    const outerFrom = new Int32Array(this.n).fill(-1);
+    let g = T;
     for (let r = 0; r < this.edgeCount; r++) {
       const h = this.edgeHalf[r];
       if (h < 0) continue;
-      // h runs u -> v with its triangle on the left; the outer half-edge runs v -> u.
-      origin[H] = site[this.tri[next[h]]];
-      twin[H] = h;
-      twin[h] = H;
-      face[H] = T;
-      outerFrom[origin[H]] = H;
-      H++;
+      const to = v[h % 3 === 2 ? h - 2 : h + 1];
+      v[3 * g] = to;
+      v[3 * g + 1] = v[h];
+      v[3 * g + 2] = GHOST;
+      tw[3 * g] = h;
+      tw[h] = 3 * g;
+      outerFrom[to] = g;
+      g++;
     }
-    for (let e = len; e < total; e++) next[e] = outerFrom[origin[twin[e]]];
-    for (let e = 0; e < total; e++) {
-      if (twin[e] < 0 || next[e] < 0) throw new Error('ambit: the sweep left a Delaunay edge unmatched; this is a bug');
+    for (let e = 0; e < len; e++) {
+      if (tw[e] < 0) throw new Error('ambit: the sweep left a Delaunay edge unmatched; this is a bug');
     }
-    return triangleMesh(vertexXY, origin, twin, next, face, T);
+    for (let k = T; k < g; k++) {
+      // The outer side of ghost k runs on from its vertex 1, where the next ghost's starts.
+      const after = outerFrom[v[3 * k + 1]];
+      if (after < 0) throw new Error('ambit: the sweep left a Delaunay edge unmatched; this is a bug');
+      tw[3 * k + 1] = 3 * after + 2;
+      tw[3 * after + 2] = 3 * k + 1;
+    }
+    // Ranks back to site numbers: the triangulation keeps the layout the mesh route gave it.
+    const site = this.siteOfRank;
+    for (let e = 0; e < 3 * g; e++) if (v[e] >= 0) v[e] = site[v[e]];
+    store.xy = siteXY;
+    store.count = g;
+    store.last = 0;
+    return store;
   }
 }
