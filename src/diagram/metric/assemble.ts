@@ -48,28 +48,25 @@ export function assembleCells(store: CellStore, n: number, kind: 'voronoi'): { m
   const H = store.count;
   const size = (s: number): number => store.size[s];
   // Runs: maximal stretches of one cell's boundary with the same neighbouring site.
-  const runCell: number[] = [], runStart: number[] = [], runLen: number[] = [], runOther: number[] = [];
-  let regionEdges = 0;
+  const runCell = new Int32Array(H), runStart = new Int32Array(H), runLen = new Int32Array(H), runOther = new Int32Array(H);
+  let R = 0, regionEdges = 0;
   for (let s = 0; s < n; s++) {
     const m = size(s), b = base[s];
     if (m === 0) continue;
-    const L = (i: number): number => label[b + i];
     let first = 0;
-    while (first < m && L(first) === L((first + m - 1) % m)) first++;
+    while (first < m && label[b + first] === label[b + (first + m - 1) % m]) first++;
     if (first === m) throw new Error(`metric cells: cell ${s} has one label all around`);
     for (let i = 0; i < m;) {
-      const at = (first + i) % m, lab = L(at);
+      const at = (first + i) % m, lab = label[b + at];
       let len = 1;
-      while (i + len < m && L((first + i + len) % m) === lab) len++;
-      if (lab >= 0) { runCell.push(s); runStart.push(at); runLen.push(len); runOther.push(lab); }
+      while (i + len < m && label[b + (first + i + len) % m] === lab) len++;
+      if (lab >= 0) { runCell[R] = s; runStart[R] = at; runLen[R] = len; runOther[R] = lab; R++; }
       else regionEdges += len;
       i += len;
     }
   }
-  const R = runCell.length;
-  const order = Array.from({ length: R }, (_, i) => i);
   const lo = (r: number): number => Math.min(runCell[r], runOther[r]), hi = (r: number): number => Math.max(runCell[r], runOther[r]);
-  order.sort((a, b) => lo(a) - lo(b) || hi(a) - hi(b) || runCell[a] - runCell[b] || along(a) - along(b));
+  const order = sortRuns(R, n, lo, (a, b) => hi(a) - hi(b) || runCell[a] - runCell[b] || along(a) - along(b));
 
   // For a pair with more than one shared stretch (rare), orders them along the bisector.
   function along(r: number): number {
@@ -116,7 +113,7 @@ export function assembleCells(store: CellStore, n: number, kind: 'voronoi'): { m
 
   // Vertices: one per class of corners.
   const vertexOf = new Int32Array(H).fill(-1);
-  const xy: number[] = [];
+  const xy = new Float64Array(2 * H);
   const origin = new Int32Array(H + regionEdges), next = new Int32Array(H + regionEdges), face = new Int32Array(H + regionEdges);
   let V = 0;
   for (let s = 0; s < n; s++) {
@@ -124,8 +121,8 @@ export function assembleCells(store: CellStore, n: number, kind: 'voronoi'): { m
     for (let i = 0; i < m; i++) {
       const e = base[s] + i, r = find(e);
       if (vertexOf[r] < 0) {
+        xy[2 * V] = cxy[2 * r]; xy[2 * V + 1] = cxy[2 * r + 1];
         vertexOf[r] = V++;
-        xy.push(cxy[2 * r], cxy[2 * r + 1]);
       }
       origin[e] = vertexOf[r];
       next[e] = base[s] + ((i + 1) % m);
@@ -152,8 +149,32 @@ export function assembleCells(store: CellStore, n: number, kind: 'voronoi'): { m
   }
   if (o > H) faceEdge[n] = H;
   const mesh = new HalfEdgeMesh({
-    kind, vertexXY: Float64Array.from(xy), origin: origin.subarray(0, o), twin: twin.subarray(0, o),
+    kind, vertexXY: xy.slice(0, 2 * V), origin: origin.subarray(0, o), twin: twin.subarray(0, o),
     next: next.subarray(0, o), face: face.subarray(0, o), faceEdge, faceSite, outerFace: n,
   });
   return { mesh, faceOfSite };
+}
+
+/**
+ * The runs 0..R-1 in a stable order by lo, then by `rest`: a counting sort
+ * by lo (keys below n), then an insertion sort of each bucket, which holds
+ * the few runs of one cell's neighbourhood. Same order as a stable
+ * comparison sort, in linear time.
+ */
+function sortRuns(R: number, n: number, lo: (r: number) => number,
+  rest: (a: number, b: number) => number): Int32Array {
+  const start = new Int32Array(n + 1);
+  for (let r = 0; r < R; r++) start[lo(r) + 1]++;
+  for (let i = 0; i < n; i++) start[i + 1] += start[i];
+  const fill = start.slice(0, n), order = new Int32Array(R);
+  for (let r = 0; r < R; r++) order[fill[lo(r)]++] = r;
+  for (let k = 0; k < n; k++) {
+    for (let i = start[k] + 1; i < start[k + 1]; i++) {
+      const r = order[i];
+      let j = i - 1;
+      while (j >= start[k] && rest(order[j], r) > 0) { order[j + 1] = order[j]; j--; }
+      order[j + 1] = r;
+    }
+  }
+  return order;
 }

@@ -38,21 +38,32 @@ type Terms = number[];
  */
 export class Bisector {
   readonly pieces: Line[];
-  readonly bends: Pt[];
   readonly cuts: Line[];
   /** True when the metric distances of s and t tie on a two-dimensional set (the Euclidean rule decides). */
   readonly degenerate: boolean;
+  /** Bend k is where the middle piece meets bendCuts[k]; placed on first use (most clips never reach a bend). */
+  private readonly mid: Line | null;
+  private readonly bendCuts: Line[];
+  private bendPts: (Pt | null)[] = [null, null];
 
-  constructor(pieces: Line[], bends: Pt[], cuts: Line[], degenerate: boolean) {
-    this.pieces = pieces; this.bends = bends; this.cuts = cuts; this.degenerate = degenerate;
+  constructor(pieces: Line[], cuts: Line[], degenerate: boolean, mid: Line | null = null, bendCuts: Line[] = []) {
+    this.pieces = pieces; this.cuts = cuts; this.degenerate = degenerate; this.mid = mid; this.bendCuts = bendCuts;
+  }
+
+  /** Bend k, between pieces k and k+1. */
+  bend(k: number): Pt {
+    return (this.bendPts[k] ??= meet(this.mid as Line, this.bendCuts[k]));
   }
 
   /** Negative on s's side, positive on t's, zero on the bisector. */
   side(q: Pt): number {
-    if (this.pieces.length === 1) return sideOf(q, this.pieces[0]);
-    if (sideOf(q, this.cuts[0]) <= 0) return sideOf(q, this.pieces[0]);
-    if (sideOf(q, this.cuts[1]) <= 0) return sideOf(q, this.pieces[1]);
-    return sideOf(q, this.pieces[2]);
+    return sideOf(q, this.pieces[this.slab(q)]);
+  }
+
+  /** The piece whose line decides side(q): the slab of the cuts that q is in (a cut itself goes with the piece before it). */
+  slab(q: Pt): number {
+    if (this.pieces.length === 1 || sideOf(q, this.cuts[0]) <= 0) return 0;
+    return sideOf(q, this.cuts[1]) <= 0 ? 1 : 2;
   }
 
   /**
@@ -94,7 +105,7 @@ export function bisector(metric: ExactMetric, sx: number, sy: number, tx: number
   if (cmp === 0) {
     // |dP| = |dQ|: the Euclidean bisector P + sigma Q = (Pa + Pb + sigma (Qa + Qb)) / 2.
     const sigma = sP * sQ;
-    return new Bisector([orient(line(1, sigma, join(join(Pa, Pb, 1), join(Qa, Qb, 1), sigma), 0.5))], [], [], true);
+    return new Bisector([orient(line(1, sigma, join(join(Pa, Pb, 1), join(Qa, Qb, 1), sigma), 0.5))], [], true);
   }
   // D is the dominant axis, K the cut axis; `alongP` says K is P (the roles swapped).
   const alongP = cmp < 0;
@@ -103,26 +114,27 @@ export function bisector(metric: ExactMetric, sx: number, sy: number, tx: number
   const dLine = (terms: Terms, scale: number): Line => (alongP ? line(0, 1, terms, scale) : line(1, 0, terms, scale));
   const kLine = (terms: Terms): Line => (alongP ? line(1, 0, terms, 1) : line(0, 1, terms, 1));
   const dSum = join(Da, Db, 1);
-  if (sK === 0) return new Bisector([orient(dLine(dSum, 0.5))], [], [], false);
+  if (sK === 0) return new Bisector([orient(dLine(dSum, 0.5))], [], false);
   const dK = join(Kb, Ka, -1);
   const low = orient(dLine(join(dSum, dK, sD), 0.5));
   const high = orient(dLine(join(dSum, dK, -sD), 0.5));
   const midTerms = join(scaled(dSum, sD), join(Ka, Kb, 1), sK);
   const mid = orient(alongP ? line(sK, sD, midTerms, 0.5) : line(sD, sK, midTerms, 0.5));
   const cutLo = kLine(sK > 0 ? Ka : Kb), cutHi = kLine(sK > 0 ? Kb : Ka);
-  const bendLo = meet(mid, cutLo), bendHi = meet(mid, cutHi);
   // Walking in the direction of increasing K, is s's side on the left? The low
   // piece runs along that direction (+Q or +P in x, y), so its normal decides.
   const dx = L1 ? (alongP ? 1 : 0) : 1, dy = L1 ? (alongP ? 0 : 1) : (alongP ? 1 : -1);
   const leftDot = low.a * -dy + low.b * dx;
-  if (leftDot < 0) return new Bisector([low, mid, high], [bendLo, bendHi], [cutLo, cutHi], false);
-  return new Bisector([high, mid, low], [bendHi, bendLo], [cutHi.negated(), cutLo.negated()], false);
+  if (leftDot < 0) return new Bisector([low, mid, high], [cutLo, cutHi], false, mid, [cutLo, cutHi]);
+  return new Bisector([high, mid, low], [cutHi.negated(), cutLo.negated()], false, mid, [cutHi, cutLo]);
 }
 
 /** The terms of a followed by those of b times k (k = 1, -1 or 0). */
 function join(a: Terms, b: Terms, k: number): Terms {
-  const out = a.slice();
-  if (k !== 0) for (let i = 0; i < b.length; i++) out.push(k * b[i]);
+  // Sized once: growing by push costs more than the copy (this runs several times per candidate).
+  const m = a.length, out = new Array<number>(m + (k !== 0 ? b.length : 0));
+  for (let i = 0; i < m; i++) out[i] = a[i];
+  if (k !== 0) for (let i = 0; i < b.length; i++) out[m + i] = k * b[i];
   return out;
 }
 

@@ -10,7 +10,7 @@ import { assembleCells, CellStore } from './assemble.js';
 import { SiteHeap } from './heap.js';
 import { dyAdd, dyMul, dySign, dySub, type Dyadic } from './dyadic.js';
 import { hilbertSort } from '../../core/hilbert.js';
-import { adjacency } from './graph.js';
+import { renumbered } from './graph.js';
 
 /** Label of the temporary box sides used for sites outside the region (never survives). */
 const BOX_LABEL = -(2 ** 30);
@@ -31,9 +31,13 @@ const BOX_LABEL = -(2 ** 30);
  * a cell point q when d(q,u) <= d(q,s) <= R, so d(s,u) <= 2R.
  */
 export function metricCells(tri: Triangulation, region: Float64Array, metric: ExactMetric): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
-  const n = tri.siteCount, xy = tri.siteXY;
+  const n = tri.siteCount;
   checkSpacing(tri, region);
-  const { off, adj } = adjacency(tri);
+  // Cells in the order of a space-filling curve, and the sites renumbered by
+  // it (rank k is site order[k]), so that a cell's neighbourhood lies in
+  // nearby memory; labels go back to site ids when a cell is stored.
+  const order = n > 1 ? hilbertSort(tri.siteXY.subarray(0, 2 * n)).ids : Uint32Array.of(0);
+  const { xy, off, adj } = renumbered(tri, order);
   const m = region.length >> 1;
   const regionLines: Line[] = [];
   const regionPts: Pt[] = [];
@@ -42,6 +46,7 @@ export function metricCells(tri: Triangulation, region: Float64Array, metric: Ex
     regionPts.push(corner(region[2 * j], region[2 * j + 1]));
     regionLines.push(throughLine(region[2 * j], region[2 * j + 1], region[2 * k], region[2 * k + 1]));
   }
+  const regionLabels = regionLines.map((_, j) => -1 - j);
   const box = outerBox(xy, n, region);
   const reach = metric === 'L1' ? 2 : 2 * Math.SQRT2;
   const heap = new SiteHeap(Math.min(n, 1024));
@@ -55,14 +60,12 @@ export function metricCells(tri: Triangulation, region: Float64Array, metric: Ex
     x: (s) => xy[2 * s],
     y: (s) => xy[2 * s + 1],
   };
-  // Cells in the order of a space-filling curve: consecutive cells read neighbouring memory.
-  const order = n > 1 ? hilbertSort(xy.subarray(0, 2 * n)).ids : Uint32Array.of(0);
   for (let k = 0; k < n; k++) {
-    site = order[k];
+    site = k;
     const sx = xy[2 * site], sy = xy[2 * site + 1];
     const inside = strictlyInside(region, sx, sy);
     const cell: Cell = inside
-      ? { pts: regionPts.slice(), lines: regionLines.slice(), labels: regionLines.map((_, j) => -1 - j) }
+      ? { pts: regionPts.slice(), lines: regionLines.slice(), labels: regionLabels.slice() }
       : boxCell(box);
     let limit = reach * farthest(cell, sx, sy, metric) * (1 + 2 ** -30);
     heap.clear();
@@ -86,8 +89,9 @@ export function metricCells(tri: Triangulation, region: Float64Array, metric: Ex
         heap.push(w, dist2(xy, site, w));
       }
     }
-    const done = inside ? cell : clipToRegion(cell, regionLines, site);
-    store.add(site, done ? done.pts : [], done ? done.labels : []);
+    const done = inside ? cell : clipToRegion(cell, regionLines, order[site]);
+    if (done) for (let i = 0; i < done.labels.length; i++) if (done.labels[i] >= 0) done.labels[i] = order[done.labels[i]];
+    store.add(order[site], done ? done.pts : [], done ? done.labels : []);
   }
   return assembleCells(store, n, 'voronoi');
 }
@@ -118,19 +122,19 @@ function cannotClip(cell: Cell, metric: ExactMetric, sx: number, sy: number, ux:
   }
   if (dsu / 2 > R) return true;
   // The bends, in the frame where the metric is L1 (see bisector.ts): at K = Ks and K = Ku.
-  const [Ps, Qs, Pu, Qu] = L1 ? [sx, sy, ux, uy] : [sx + sy, sx - sy, ux + uy, ux - uy];
+  // No arrays here: this runs for every candidate.
+  const Ps = L1 ? sx : sx + sy, Qs = L1 ? sy : sx - sy, Pu = L1 ? ux : ux + uy, Qu = L1 ? uy : ux - uy;
   const dP = Pu - Ps, dQ = Qu - Qs, h = (Math.abs(dP) + Math.abs(dQ)) / 2;
   // Equal |dP|, |dQ| (nearly): a straight bisector, or a bend the float test cannot place; leave it to the exact clip.
   if (Math.abs(Math.abs(dP) - Math.abs(dQ)) <= 8 * U * (Math.abs(dP) + Math.abs(dQ))) return dP === 0 || dQ === 0 ? true : false;
   const alongP = Math.abs(dQ) > Math.abs(dP);
-  const bends = alongP
-    ? [Ps, Qs + Math.sign(dQ) * h, Pu, Qu - Math.sign(dQ) * h]
-    : [Ps + Math.sign(dP) * h, Qs, Pu - Math.sign(dP) * h, Qu];
-  for (let k = 0; k < 4; k += 2) {
-    const bx = L1 ? bends[k] : (bends[k] + bends[k + 1]) / 2, by = L1 ? bends[k + 1] : (bends[k] - bends[k + 1]) / 2;
-    if (!clearlyOutside(pts, bx, by)) return false;
-  }
-  return true;
+  const hP = alongP ? 0 : Math.sign(dP) * h, hQ = alongP ? Math.sign(dQ) * h : 0;
+  return bendOutside(pts, L1, Ps + hP, Qs + hQ) && bendOutside(pts, L1, Pu - hP, Qu - hQ);
+}
+
+/** clearlyOutside for a bend given in the frame of bisector.ts. */
+function bendOutside(pts: Pt[], L1: boolean, P: number, Q: number): boolean {
+  return L1 ? clearlyOutside(pts, P, Q) : clearlyOutside(pts, (P + Q) / 2, (P - Q) / 2);
 }
 
 /** Float point-in-polygon that only says "outside" with room to spare (no edge within a relative 2^-30). */

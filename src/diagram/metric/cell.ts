@@ -23,6 +23,9 @@ export interface ClipContext {
 interface Piece { start: Pt; pos: number; status: number; label: number; line: Line; edge: number }
 
 const notOnB = -1;
+/** Side signs of one clip (clips do not nest): reused, as allocating typed arrays per clip is slow. */
+let scratch = new Int8Array(256);
+const UNKNOWN = 2;
 /** Shared empty list: most edges have no crossing, and this runs for every edge of every clip. */
 const NO_EVENTS: { p: Pt; pos: number }[] = [];
 
@@ -37,18 +40,27 @@ const NO_EVENTS: { p: Pt; pos: number }[] = [];
 export function clipCell(cell: Cell, bis: Bisector, t: number, ctx: ClipContext): boolean {
   const { pts, lines, labels } = cell;
   const n = pts.length, K = bis.pieces.length;
-  const sv = new Int8Array(n);
+  if (scratch.length < n * (K + 2)) scratch = new Int8Array(2 * n * (K + 2));
+  // sv[i] = scratch[i] is corner i's side of the bisector. With three
+  // pieces, scratch[n + i] is its place across the cuts (as Bisector.pos
+  // numbers it, 1..5) and scratch[2n + 3i + k] its side of piece k's line,
+  // found when first needed (UNKNOWN until then): an edge can only cross
+  // piece k inside the cell where the closed slab of k meets the edge.
+  const sv = scratch, Z = n, P = 2 * n;
   let out = 0, on = 0;
   for (let i = 0; i < n; i++) {
-    sv[i] = bis.side(pts[i]);
+    if (K === 1) sv[i] = sideOf(pts[i], bis.pieces[0]);
+    else {
+      const z = bis.pos(pts[i]), k = z <= 2 ? 0 : z <= 4 ? 1 : 2;
+      sv[Z + i] = z;
+      sv[P + 3 * i] = UNKNOWN; sv[P + 3 * i + 1] = UNKNOWN; sv[P + 3 * i + 2] = UNKNOWN;
+      sv[i] = sv[P + 3 * i + k] = sideOf(pts[i], bis.pieces[k]);
+    }
     if (sv[i] > 0) out++;
     else if (sv[i] === 0) on++;
   }
   // A straight bisector with no corner on its far side or on it cannot cross the cell.
   if (out === 0 && on === 0 && K === 1) return false;
-  // Sides of every corner against every piece line, for the crossing tests.
-  const ps = new Int8Array(n * K);
-  for (let i = 0; i < n; i++) for (let k = 0; k < K; k++) ps[i * K + k] = K === 1 ? sv[i] : sideOf(pts[i], bis.pieces[k]);
   const pieces: Piece[] = [];
   let changed = false;
   for (let i = 0; i < n; i++) {
@@ -56,13 +68,22 @@ export function clipCell(cell: Cell, bis: Bisector, t: number, ctx: ClipContext)
     const a = pts[i], b = pts[j];
     let events: { p: Pt; pos: number }[] = NO_EVENTS;
     for (let k = 0; k < K; k++) {
-      if (ps[i * K + k] * ps[j * K + k] >= 0) continue;
+      if (K === 1) {
+        if (sv[i] * sv[j] >= 0) continue;
+      } else {
+        // Both corners strictly before the slab of piece k, or both strictly after: the edge is too.
+        const zi = sv[Z + i], zj = sv[Z + j];
+        if ((zi < 2 * k && zj < 2 * k) || (zi > 2 * k + 2 && zj > 2 * k + 2)) continue;
+        if (sv[P + 3 * i + k] === UNKNOWN) sv[P + 3 * i + k] = sideOf(a, bis.pieces[k]);
+        if (sv[P + 3 * j + k] === UNKNOWN) sv[P + 3 * j + k] = sideOf(b, bis.pieces[k]);
+        if (sv[P + 3 * i + k] * sv[P + 3 * j + k] >= 0) continue;
+      }
       if (events === NO_EVENTS) events = [];
       const x = meet(lines[i], bis.pieces[k]);
       const pos = bis.pos(x);
       if (pos < 2 * k || pos > 2 * k + 2) continue;
       if (events.some((e) => e.pos === pos)) continue;
-      events.push({ p: (pos & 1) === 0 ? bis.bends[pos / 2 - 1] : x, pos });
+      events.push({ p: (pos & 1) === 0 ? bis.bend(pos / 2 - 1) : x, pos });
     }
     if (events.length > 1) events.sort((e, f) => e.pos - f.pos);
     const m = events.length;
@@ -104,7 +125,7 @@ export function clipCell(cell: Cell, bis: Bisector, t: number, ctx: ClipContext)
     nPts.push(exit.start); nLines.push(bis.pieces[from >> 1]); nLabels.push(t);
     for (let pos = from + 1; pos < to; pos++) {
       if ((pos & 1) !== 0) continue;
-      nPts.push(bis.bends[pos / 2 - 1]); nLines.push(bis.pieces[pos >> 1]); nLabels.push(t);
+      nPts.push(bis.bend(pos / 2 - 1)); nLines.push(bis.pieces[pos >> 1]); nLabels.push(t);
     }
     prev = null;
     c = d;

@@ -68,6 +68,21 @@ export class Line {
     return (this.exactValue = r);
   }
 
+  /**
+   * Whether o is certainly this line (either orientation), from the data of
+   * the two definitions alone: equal data defines the same set, so true is
+   * exact; false only means "not known".
+   */
+  sameAs(o: Line): boolean {
+    if (o === this) return true;
+    const d = this.data, e = o.data;
+    if (this.kind !== o.kind || d.length !== e.length) return false;
+    // SPECIAL: the stored coefficients are the defining ones times flip.
+    if (this.kind === SPECIAL && (this.scale !== o.scale || this.a * this.flip !== o.a * o.flip || this.b * this.flip !== o.b * o.flip)) return false;
+    for (let i = 0; i < d.length; i++) if (d[i] !== e[i]) return false;
+    return true;
+  }
+
   /** The same line with the sides swapped. */
   negated(): Line {
     return new Line(-this.a, -this.b, -this.c, this.ea, this.eb, this.ec, this.size, this.kind, this.data, this.scale, -this.flip);
@@ -141,6 +156,11 @@ export class Pt {
     this.exactValue = exact;
   }
 
+  /** Whether the point is by construction on line l (true is exact; false means "not known"). */
+  builtOn(l: Line): boolean {
+    return this.kind === MEET && ((this.r1 as Line).sameAs(l) || (this.r2 as Line).sameAs(l));
+  }
+
   exact(): Exact3 {
     if (this.exactValue) return this.exactValue;
     let r: Exact3;
@@ -206,6 +226,8 @@ export function sideOf(p: Pt, l: Line): number {
     4 * U * (Math.abs(ax) + Math.abs(by) + Math.abs(l.c))) * SLACK + TINY;
   if (f > bound) return 1;
   if (f < -bound) return -1;
+  // Often the case here: a bend of an earlier bisector tested against a cut through the same site.
+  if (p.builtOn(l)) return 0;
   const [A, B, C] = l.exact(), [X, Y, W] = p.exact();
   return dySign(dyAdd(dyAdd(dyMul(A, X), dyMul(B, Y)), dyMul(C, W))) * dySign(W);
 }

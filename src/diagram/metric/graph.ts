@@ -14,3 +14,23 @@ export function adjacency(tri: Triangulation): { off: Int32Array; adj: Int32Arra
   }
   return { off, adj };
 }
+
+/**
+ * The sites' coordinates and Delaunay adjacency with site order[k] renamed
+ * k; each site's neighbours stay in the same order, so a search over the
+ * graph visits them in the same order as before.
+ */
+export function renumbered(tri: Triangulation, order: ArrayLike<number>): { xy: Float64Array; off: Int32Array; adj: Int32Array } {
+  const n = tri.siteCount, src = tri.siteXY, { off: o, adj: a } = adjacency(tri);
+  const rank = new Int32Array(n);
+  for (let k = 0; k < n; k++) rank[order[k]] = k;
+  const xy = new Float64Array(2 * n), off = new Int32Array(n + 1), adj = new Int32Array(a.length);
+  for (let k = 0; k < n; k++) {
+    const s = order[k];
+    xy[2 * k] = src[2 * s]; xy[2 * k + 1] = src[2 * s + 1];
+    let e = off[k];
+    for (let f = o[s]; f < o[s + 1]; f++) adj[e++] = rank[a[f]];
+    off[k + 1] = e;
+  }
+  return { xy, off, adj };
+}
