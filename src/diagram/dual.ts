@@ -246,7 +246,9 @@ class DiagramBuilder {
     points.xy = new Float64Array(2 * T + 2 * (16 * Math.ceil(Math.sqrt(T)) + 4096));
     points.count = T;
     const P = points.xy;
-    const error = new Float64Array(T);
+    // The error bounds live only through this pass: they borrow the memory of the origin array (3T ints,
+    // at least T doubles), which clipEdges fills afterwards, instead of faulting in 8 fresh bytes a triangle.
+    const error = new Float64Array(this.origin.buffer, 0, T);
     const inside = (this.inside = new Uint8Array(T));
     const cocircular: number[] = [];
     const w = this.weights;
@@ -694,8 +696,8 @@ class DiagramBuilder {
     faceSite[n] = -1;
     for (let x = 0; x < E; x++) {
       if (origin[x] >= V) origin[x] = pointMove[origin[x] - V];
-      const f = face[x] === OUTER ? n : face[x];
-      face[x] = f;
+      let f = face[x];
+      if (f === OUTER) face[x] = f = n;
       faceEdge[f] = x;
     }
     const faceOfSite = new Int32Array(n);
