@@ -15,6 +15,23 @@ export const DEAD = -2;
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
 
+/**
+ * (a,b,p) + (b,a,d) across half-edge e = a→b become (p,d,b) + (d,p,a).
+ * A plain function shared by both flip loops: side by side in one process
+ * at 10^6 sites it built as fast as the loop with the flip written out.
+ */
+function flip(v: Int32Array, tw: Int32Array, e: number): void {
+  const e1 = nextOf(e), e2 = nextOf(e1), f = tw[e], f1 = nextOf(f), f2 = nextOf(f1);
+  const a = v[e], b = v[e1], p = v[e2], d = v[f2];
+  const x1 = tw[e1], x2 = tw[e2], y1 = tw[f1], y2 = tw[f2];
+  v[e] = p; v[e1] = d; v[e2] = b;
+  v[f] = d; v[f1] = p; v[f2] = a;
+  tw[e1] = y2; tw[y2] = e1;
+  tw[e2] = x1; tw[x1] = e2;
+  tw[f1] = x2; tw[x2] = f1;
+  tw[f2] = y1; tw[y1] = f2;
+}
+
 // Signs below are those of robust-predicates, y-down: orient2d(a, b, c) < 0
 // means a, b, c turn counter-clockwise in ambit's y-up convention, and
 // incircle(a, b, c, d) > 0 means d lies inside the circle of counter-clockwise a, b, c.
@@ -400,14 +417,7 @@ export class TriangleStore {
       if (incircle(
         xy[2 * a], xy[2 * a + 1], xy[2 * b], xy[2 * b + 1],
         xy[2 * p], xy[2 * p + 1], xy[2 * d], xy[2 * d + 1]) <= 0) continue;
-      const x1 = tw[e1], x2 = tw[e2], y1 = tw[f1], y2 = tw[f2];
-      // (a,b,p) + (b,a,d) become (p,d,b) + (d,p,a); the same as flip(e), written out in this hottest loop.
-      v[e] = p; v[e1] = d; v[e2] = b;
-      v[f] = d; v[f1] = p; v[f2] = a;
-      tw[e1] = y2; tw[y2] = e1;
-      tw[e2] = x1; tw[x1] = e2;
-      tw[f1] = x2; tw[x2] = f1;
-      tw[f2] = y1; tw[y1] = f2;
+      flip(v, tw, e);
       if (depth + 2 > stack.length) {
         const grown = new Int32Array(2 * stack.length);
         grown.set(stack);
@@ -448,7 +458,7 @@ export class TriangleStore {
       // with its lifted point on the chord has no area of its own: it is redundant, as inserted sites are.
       if (power === 0 && atA !== 0 && atB !== 0) continue;
       if (atB < 0 && atA < 0) {
-        this.flip(e);
+        flip(this.vert, this.twin, e);
         depth = this.push(e1, depth);
         depth = this.push(f2, depth);
         continue;
@@ -470,20 +480,6 @@ export class TriangleStore {
       depth = this.depth;
     }
     this.depth = 0;
-  }
-
-  /** (a,b,p) + (b,a,d) across half-edge e = a→b become (p,d,b) + (d,p,a). */
-  private flip(e: number): void {
-    const v = this.vert, tw = this.twin;
-    const e1 = nextOf(e), e2 = nextOf(e1), f = tw[e], f1 = nextOf(f), f2 = nextOf(f1);
-    const a = v[e], b = v[e1], p = v[e2], d = v[f2];
-    const x1 = tw[e1], x2 = tw[e2], y1 = tw[f1], y2 = tw[f2];
-    v[e] = p; v[e1] = d; v[e2] = b;
-    v[f] = d; v[f1] = p; v[f2] = a;
-    tw[e1] = y2; tw[y2] = e1;
-    tw[e2] = x1; tw[x1] = e2;
-    tw[f1] = x2; tw[x2] = f1;
-    tw[f2] = y1; tw[y1] = f2;
   }
 
   /** Pushes the three edges of the triangle holding half-edge e for a regularity check. */
@@ -539,7 +535,7 @@ export class TriangleStore {
           const side = orient2d(rx, ry, bx, by, ax, ay);
           if (side > 0 || (side === 0 && pass === 0)) continue;
           const ei = outs[i], f = tw[ei];
-          this.flip(ei);
+          flip(this.vert, this.twin, ei);
           this.push3(ei);
           this.push3(f);
           z = nextOf(nextOf(f));

@@ -201,9 +201,15 @@ export class Triangulation {
    */
   get hiddenSites(): Int32Array { return this.hidden; }
 
-  /** @internal Weights in the store's rank order (null when unweighted). */
+  /**
+   * @internal Weights in the store's rank order; null when unweighted or
+   * when all are equal (then the build, and any diagram of it, is the
+   * unweighted one).
+   */
   rankWeights(): Float64Array | null {
-    return this.rankW ?? this.siteW;
+    // Without a store, ranks are site numbers (a path); with one, only a weighted build has rank weights.
+    if (this.store) return this.rankW;
+    return this.siteW !== null && !allEqual(this.siteW) ? this.siteW : null;
   }
 
   get inputCount(): number { return this.siteOfInput.length; }
