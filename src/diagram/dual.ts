@@ -119,7 +119,9 @@ class DiagramBuilder {
     this.weights = tri.rankWeights();
     this.n = tri.siteCount;
     this.sideEvents = Array.from({ length: region.count }, () => []);
-    this.nearLimit = 4 * (region.radius + 1);
+    // Every margin is in units of the region's radius, never absolute: a far end of a clipped segment
+    // carries rounding of its own distance from the region into the crossing, so it must stay at the region's scale.
+    this.nearLimit = 4 * region.radius;
   }
 
   /** Room for the diagram's half-edges and, after them, a guess at the boundary's; linkBoundary grows it if short. */
@@ -174,19 +176,19 @@ class DiagramBuilder {
       // One end inside: leave it along the bisector's own direction, known from the sites, to a point
       // surely outside; the other centre may be ill-conditioned (a near-flat triangle) and pull the cut aside.
       const K = inA ? A : B, kx = P[2 * K], ky = P[2 * K + 1];
-      const reach = 2 * (Math.hypot(kx - region.cx, ky - region.cy) + region.radius) + 1;
+      const reach = 2 * (Math.hypot(kx - region.cx, ky - region.cy) + region.radius);
       if (inA) { sx = kx; sy = ky; ex = kx + reach * ux; ey = ky + reach * uy; }
       else { sx = kx - reach * ux; sy = ky - reach * uy; ex = kx; ey = ky; }
     } else if (nearA && nearB) {
       sx = P[2 * A]; sy = P[2 * A + 1]; ex = P[2 * B]; ey = P[2 * B + 1];
     } else {
       const sC = (region.cx - mx) * ux + (region.cy - my) * uy;
-      const lo = sC - region.radius - 1, hi = sC + region.radius + 1;
+      const lo = sC - 2 * region.radius, hi = sC + 2 * region.radius;
       const sA = A < 0 ? -Infinity : (P[2 * A] - mx) * ux + (P[2 * A + 1] - my) * uy;
       const sB = B < 0 ? Infinity : (P[2 * B] - mx) * ux + (P[2 * B + 1] - my) * uy;
       if (sB < lo || sA > hi) return false;
-      const pS = nearA ? sA : Math.min(lo, sB) - 1;
-      const pE = nearB ? sB : Math.max(hi, sA) + 1;
+      const pS = nearA ? sA : Math.min(lo, sB - region.radius);
+      const pE = nearB ? sB : Math.max(hi, sA + region.radius);
       sx = nearA ? P[2 * A] : mx + pS * ux; sy = nearA ? P[2 * A + 1] : my + pS * uy;
       ex = nearB ? P[2 * B] : mx + pE * ux; ey = nearB ? P[2 * B + 1] : my + pE * uy;
     }

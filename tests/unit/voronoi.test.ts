@@ -291,6 +291,27 @@ describe('voronoi: worked examples', () => {
     expect(d.totalArea()).toBeCloseTo((clip.maxX - clip.minX) * 2.8, 12);
   });
 
+  it('a region 1e-8 wide at 0.25 from the origin: boundary crossings stay on its sides (found by the property test)', () => {
+    // Far ends of clipped bisectors used to sit about 1 unit away whatever the region's size, and their
+    // rounding moved the crossings 17 ulps off the sides; the cells then over-covered the region by 5.5e-7 of
+    // its area. With margins in units of the region's radius the sum is within one ulp of movement per side.
+    const sites = [-0.25, -0.24999999805579992, -0.24999999972728143, -0.24999999348119945];
+    const clip = [
+      -0.24999999909837073, -0.24999999548573118, -0.24999999757282537, -0.24999999919944998,
+      -0.24999999706111384, -0.24999999783169882,
+    ];
+    const d = voronoi(sites, { clip });
+    expectValid(d);
+    let sum = 0;
+    for (const a of d.cellAreas()) sum += a;
+    const r = d.region;
+    const area = ((r[2] - r[0]) * (r[5] - r[1]) - (r[4] - r[0]) * (r[3] - r[1])) / 2;
+    let perimeter = 0;
+    for (let i = 0; i < 3; i++) perimeter += Math.hypot(r[(2 * i + 2) % 6] - r[2 * i], r[(2 * i + 3) % 6] - r[2 * i + 1]);
+    const ulp = 2 ** -55; // of coordinates in [1/8, 1/4)
+    expect(Math.abs(sum - area)).toBeLessThan(perimeter * ulp);
+  });
+
   it('accepts an existing triangulation and keeps its numbering', () => {
     const d1 = voronoi([[1, 1], [3, 1], [2, 5]]);
     const d2 = voronoi(d1.triangulation);
