@@ -18,6 +18,7 @@ export { voronoi, VoronoiDiagram } from './diagram/voronoi.js';
 export type { VoronoiOptions, VoronoiMethod, CellNeighbors } from './diagram/voronoi.js';
 export { MetricVoronoiDiagram } from './diagram/metric/diagram.js';
 export type { Metric } from './diagram/metric/options.js';
+export type { ExactMetric } from './diagram/metric/bisector.js';
 export { readClipRegion } from './diagram/region.js';
 export type { ClipRegion, RectRegion } from './diagram/region.js';
 export { SiteLocator } from './query/site-locator.js';
