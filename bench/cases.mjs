@@ -14,7 +14,7 @@
 //   compare(facts, ref, points, input) => string | null   a note on stderr after scipy ran
 // Adding a case is one more object here (plus an OPS entry in scipy_ref.py if scipy can
 // do the same work).
-import { SiteLocator, balanceTerritories, compareDistance, triangulate, voronoi } from '../dist/index.js';
+import { SiteLocator, balanceTerritories, clipToStudyArea, compareDistance, triangulate, voronoi } from '../dist/index.js';
 import { makeRng } from './distributions.mjs';
 
 /** Number of query points of the `nearest` case, whatever the number of sites. */
@@ -87,6 +87,52 @@ function compareNearest(facts, ref, points, input) {
   return `${bad ? 'WARNING: ' : ''}nearest vs cKDTree on ${ref.sample.length} sampled queries (every ${stride}th): ` +
     `${same} same site, ${ties} exact ties, ${oursFarther} where ours is farther, ` +
     `${theirsFarther} where cKDTree's is farther (exact distances)`;
+}
+
+/** A ring of `m` vertices about (cx, cy), radius r times a deterministic wobble (star-shaped, so simple). */
+function wobblyRing(cx, cy, r, m, phase, rng) {
+  const ring = [];
+  for (let i = 0; i < m; i++) {
+    const a = (2 * Math.PI * i) / m;
+    const f = 1 + 0.08 * Math.sin(5 * a + phase) + 0.04 * Math.sin(13 * a + 2 * phase) + 0.02 * (rng.next() - 0.5);
+    ring.push([cx + r * f * Math.cos(a), cy + r * f * Math.sin(a)]);
+  }
+  return ring;
+}
+
+/**
+ * The `clip-holes` study area: a shell of 800 vertices over the points' bounding box and 8 holes
+ * of 25 vertices (1000 in all). The diagram (clipped to the box) is built here, untimed; so that
+ * the row can be read as a ratio, the build and the clip are also timed here (median of 5) and
+ * their ratio logged. The timed run is the clip alone.
+ */
+function clipHolesSetup(points, seed) {
+  const box = boundingBox(points), rng = makeRng(seed + 49979687);
+  const w = Math.min(box.maxX - box.minX, box.maxY - box.minY);
+  const cx = (box.minX + box.maxX) / 2, cy = (box.minY + box.maxY) / 2;
+  // Shell radius in 0.42 w (1 ± 0.13): inside the box, and beyond the holes (0.25 w + 0.06 w from the centre).
+  const area = [wobblyRing(cx, cy, 0.42 * w, 800, 0, rng)];
+  for (let k = 0; k < 8; k++) {
+    const a = (2 * Math.PI * k) / 8;
+    area.push(wobblyRing(cx + 0.25 * w * Math.cos(a), cy + 0.25 * w * Math.sin(a), 0.05 * w, 25, k, rng));
+  }
+  // One untimed warm-up each, then 5 runs each, interleaved so that both see the same machine load.
+  let diagram = voronoi(points, { clip: box });
+  clipToStudyArea(diagram, area);
+  const build = [], clip = [];
+  for (let i = 0; i < 5; i++) {
+    let t0 = performance.now();
+    diagram = voronoi(points, { clip: box });
+    build.push(performance.now() - t0);
+    t0 = performance.now();
+    clipToStudyArea(diagram, area);
+    clip.push(performance.now() - t0);
+  }
+  const med = (xs) => xs.sort((a, b) => a - b)[2];
+  const buildMs = med(build), clipMs = med(clip);
+  process.stderr.write(`clip-holes: n ${points.length / 2}, voronoi build ${buildMs.toFixed(1)} ms, clip ${clipMs.toFixed(1)} ms, ` +
+    `ratio clip/build ${(clipMs / buildMs).toFixed(2)} (medians of 5, this run)\n`);
+  return { diagram, area };
 }
 
 export const cases = [
@@ -168,6 +214,16 @@ export const cases = [
     run: (points, input) => triangulate(points, input),
     scipy: null,
     size: (t) => t.triangleCount,
+  },
+  {
+    // Study-area clipping: every cell of a Voronoi diagram cut to a polygon of 1000 vertices with
+    // 8 holes (clipHolesSetup, which also logs the clip's time as a ratio to the diagram's build).
+    // Meant for --dist uniform. scipy has no polygon clipping of Voronoi cells to compare with.
+    name: 'clip-holes',
+    setup: clipHolesSetup,
+    run: (points, input) => clipToStudyArea(input.diagram, input.area),
+    scipy: null,
+    size: (c) => c.pieceCount,
   },
   {
     // Balanced territories: weights giving every power cell, clipped to the bounding box, a random

@@ -25,3 +25,7 @@ export { SiteLocator } from './query/site-locator.js';
 export { compareDistance } from './core/distance.js';
 export { powerTest, comparePowerDistance, MAX_WEIGHT, MIN_WEIGHT } from './core/power.js';
 export { balanceTerritories, type BalanceOptions, type BalanceResult, type BalanceProgress } from './analyze/balance.js';
+export { clipToStudyArea, studyAreaBounds, StudyAreaCells } from './analyze/study-area/study-area-cells.js';
+export { AreaInputError } from './analyze/study-area/area-input.js';
+export type { StudyAreaInput, AreaPolygon } from './analyze/study-area/area-input.js';
+export type { StudyAreaPiece } from './analyze/study-area/pieces.js';
