@@ -1,5 +1,7 @@
-// ambit demo: the invented town of Quillon Vale and its facilities.
-// Run from a fresh clone with `npm ci && npm run demo`.
+// ambit library walk-through: the invented town of Quillon Vale and its facilities, through the API.
+// Run after a build with `node examples/demo.mjs` (writes out/example/). `npm run demo` runs the command-line demo
+// (`ambit demo`, src/cli/demo.ts) on the same town, whose data there is kept equal to data/quillon-vale.json by
+// tests/unit/demo-data.test.ts.
 import { readFileSync, mkdirSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { dirname, join } from 'node:path';
@@ -16,7 +18,7 @@ const check = checkMesh(tri.toMesh());
 const nameOfSite = [];
 facilities.forEach((f, i) => { nameOfSite[tri.siteOfInput[i]] ??= f.name; });
 
-console.log('ambit demo: Quillon Vale (an invented town)');
+console.log('ambit library walk-through: Quillon Vale (an invented town)');
 console.log(`  ${facilities.length} facility records -> ${tri.siteCount} sites (${tri.mergedCount} merged duplicate)`);
 facilities.forEach((f, i) => {
   const s = tri.siteOfInput[i];
@@ -41,11 +43,11 @@ console.log(`    total ${(areas.totalArea() / 1e6).toFixed(2)} km² (the town li
 const probe = { x: 532000, y: 6181000 };
 console.log(`  nearest facility to the point (${probe.x}, ${probe.y}): ${nameOfSite[areas.nearest(probe.x, probe.y)]}`);
 
-const out = join(here, '..', 'out', 'demo');
+const out = join(here, '..', 'out', 'example');
 mkdirSync(out, { recursive: true });
 writeFileSync(join(out, 'triangulation.json'), writeTriangulationJSON(tri));
 writeFileSync(join(out, 'mesh.json'), writeMeshJSON(tri.toMesh()));
 writeFileSync(join(out, 'service-areas.json'), writeMeshJSON(areas.mesh));
-console.log('  wrote out/demo/triangulation.json, out/demo/mesh.json and out/demo/service-areas.json');
+console.log('  wrote out/example/triangulation.json, out/example/mesh.json and out/example/service-areas.json');
 console.log('  Caution: these are straight-line geometric neighbourhoods, not travel-time service areas.');
 console.log('  For emergency or regulated services, defer to local codes and licensed practice.');

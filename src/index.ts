@@ -29,3 +29,11 @@ export { clipToStudyArea, studyAreaBounds, StudyAreaCells } from './analyze/stud
 export { AreaInputError } from './analyze/study-area/area-input.js';
 export type { StudyAreaInput, AreaPolygon } from './analyze/study-area/area-input.js';
 export type { StudyAreaPiece } from './analyze/study-area/pieces.js';
+export { toGeoJSON, writeGeoJSON, type GeoJSONOptions } from './io/geojson.js';
+export { trianglesToGeoJSON, writeTrianglesGeoJSON } from './io/geojson-triangles.js';
+export { toSVG, writeSVG, svgFrame, CELL_PALETTE, type SVGOptions, type SVGFrame } from './io/svg.js';
+export { cellTableCSV, writeCellTable } from './io/cell-table.js';
+export { readCSVSites, type CSVSiteOptions, type SiteTable } from './io/csv.js';
+export { readGeoJSONSites, readGeoJSONPolygons, type GeoJSONSiteOptions } from './io/geojson-read.js';
+export type { CellPiece, CellPieceList, CellSource } from './io/cells-source.js';
+export type { TextSink } from './io/text-sink.js';

@@ -214,6 +214,12 @@ describe('clipToStudyArea: bad input', () => {
     });
   }
 
+  it('a shell vertex touching a hole edge names both rings (found through the command line)', () => {
+    const err = thrown(() => clipToStudyArea(d, [[[0, 0], [2, 1.5], [4, 0], [4, 4], [0, 4]], [[1, 1.5], [1, 3], [3, 3], [3, 1.5]]] as never));
+    expect([err.code, err.polygon, err.ring, err.index]).toEqual(['area-rings-cross', 0, 0, 1]);
+    expect(err.message).toMatch(/edge 0–1 of polygon 0, ring 0 and edge 3–0 of polygon 0, ring 1 cross or touch/);
+  });
+
   it('input that is not a polygon', () => {
     for (const bad of [null, 3, [], [[]], 'square']) {
       const err = thrown(() => clipToStudyArea(d, bad as never));

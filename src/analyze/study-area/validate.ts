@@ -64,7 +64,8 @@ export function validateRings(area: StudyArea): void {
       if (!segmentsMeet(xy, j, b, k, next[k])) continue;
       const rj = area.ringOf(j), rk = area.ringOf(k), at = touchingVertex(xy, j, b, k, next[k]);
       if (rj === rk) throw area.error('area-self-intersecting', `edges ${edge(j)} and ${edge(k)} cross or touch`, at);
-      throw area.error('area-rings-cross', `edge ${edge(k)} crosses or touches edge ${edge(j)} of polygon ${area.ringPolygon[rj]}, ring ${area.ringIndex[rj]}`, at);
+      const where = (r: number, e: number): string => `edge ${edge(e)} of polygon ${area.ringPolygon[r]}, ring ${area.ringIndex[r]}`;
+      throw area.error('area-rings-cross', `${where(rj, j)} and ${where(rk, k)} cross or touch`, at);
     }
   }
   const rings = area.ringCount;

@@ -1,0 +1,133 @@
+import { FormatError } from '../core/errors.js';
+
+export interface CSVSiteOptions {
+  /** Column of x (default "x"). */
+  x?: string;
+  /** Column of y (default "y"). */
+  y?: string;
+  /** Column of weights (optional). */
+  weight?: string;
+  /** Column of site ids (optional; kept as text). */
+  id?: string;
+}
+
+/** Sites read from a table: coordinates, optional weights and ids, and where each came from. */
+export interface SiteTable {
+  xy: Float64Array;
+  weights: Float64Array | null;
+  ids: string[] | null;
+  /** For each point, where it was read: "line 7", "features[3]"... (for error messages). */
+  where(index: number): string;
+}
+
+// A decimal number, optionally signed, with an optional exponent: what spreadsheets write. Hex, "Infinity" and empty fields are not numbers here.
+const NUMBER = /^\s*[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?\s*$/;
+
+function fail(code: string, message: string, path: string): never {
+  throw new FormatError(code, `${path}: ${message}`, path);
+}
+
+/**
+ * Splits CSV text into records (RFC 4180: comma separated, fields may be
+ * quoted with "" for a quote and may then hold commas and line breaks; LF
+ * or CRLF line ends; a leading byte-order mark is ignored). Calls `row` with
+ * each non-blank record and the line it starts on.
+ */
+export function forEachCSVRecord(text: string, row: (fields: string[], line: number) => void): void {
+  let i = text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  const n = text.length;
+  let line = 1;
+  while (i < n) {
+    const startLine = line, fields: string[] = [];
+    for (;;) {
+      if (text.charCodeAt(i) === 34 /* " */) {
+        let j = i + 1, value = '';
+        for (;;) {
+          const q = text.indexOf('"', j);
+          if (q < 0) fail('bad-quote', 'a quoted field is never closed', `line ${startLine}`);
+          value += text.slice(j, q);
+          for (let k = j; k < q; k++) if (text.charCodeAt(k) === 10) line++;
+          if (text.charCodeAt(q + 1) === 34) { value += '"'; j = q + 2; continue; }
+          i = q + 1;
+          break;
+        }
+        fields.push(value);
+        const c = text.charCodeAt(i);
+        if (i < n && c !== 44 && c !== 10 && c !== 13) fail('bad-quote', `unexpected text after a closing quote in field ${fields.length}`, `line ${line}`);
+      } else {
+        let j = i;
+        for (; j < n; j++) {
+          const c = text.charCodeAt(j);
+          if (c === 44 || c === 10 || c === 13) break;
+        }
+        fields.push(text.slice(i, j));
+        i = j;
+      }
+      if (i < n && text.charCodeAt(i) === 44) { i++; continue; }
+      break;
+    }
+    // Line end: CRLF, LF or a lone CR.
+    if (i < n && text.charCodeAt(i) === 13) i++;
+    if (i < n && text.charCodeAt(i) === 10) i++;
+    line++;
+    if (fields.length === 1 && fields[0].trim() === '') continue;
+    row(fields, startLine);
+  }
+}
+
+/**
+ * Reads sites from CSV text with a header row, taking x, y and optional
+ * weight and id from named columns. Untrusted: a missing column, a row with
+ * the wrong number of fields, or a value that is not a decimal number is a
+ * FormatError whose path names the line and column, e.g. `line 7, column "x"`.
+ */
+export function readCSVSites(text: string, options: CSVSiteOptions = {}): SiteTable {
+  const names = { x: options.x ?? 'x', y: options.y ?? 'y', weight: options.weight, id: options.id };
+  let header: string[] | null = null;
+  let cx = -1, cy = -1, cw = -1, ci = -1;
+  let xy = new Float64Array(1024), count = 0, lines = new Int32Array(512);
+  let weights: Float64Array | null = names.weight === undefined ? null : new Float64Array(512);
+  const ids: string[] | null = names.id === undefined ? null : [];
+  const number = (fields: string[], col: number, line: number): number => {
+    const s = fields[col];
+    if (!NUMBER.test(s)) {
+      fail('not-a-number', s.trim() === '' ? 'the field is empty; expected a number' : `${JSON.stringify(s)} is not a number`, `line ${line}, column "${header![col]}"`);
+    }
+    return Number(s);
+  };
+  forEachCSVRecord(text, (fields, line) => {
+    if (header === null) {
+      header = fields.map((f) => f.trim());
+      const col = (name: string, what: string): number => {
+        const k = header!.indexOf(name);
+        if (k < 0) fail('missing-column', `no column "${name}" for ${what}; the header has ${header!.map((h) => JSON.stringify(h)).join(', ')}`, `line ${line}`);
+        return k;
+      };
+      cx = col(names.x, 'x'); cy = col(names.y, 'y');
+      if (names.weight !== undefined) cw = col(names.weight, 'weights');
+      if (names.id !== undefined) ci = col(names.id, 'ids');
+      return;
+    }
+    if (fields.length !== header.length) fail('bad-row', `${fields.length} fields, but the header has ${header.length}`, `line ${line}`);
+    if (2 * count + 2 > xy.length) {
+      const bigger = new Float64Array(2 * xy.length); bigger.set(xy); xy = bigger;
+      const l2 = new Int32Array(2 * lines.length); l2.set(lines); lines = l2;
+      if (weights) { const w2 = new Float64Array(2 * weights.length); w2.set(weights); weights = w2; }
+    }
+    xy[2 * count] = number(fields, cx, line);
+    xy[2 * count + 1] = number(fields, cy, line);
+    if (weights) weights[count] = number(fields, cw, line);
+    if (ids) ids.push(fields[ci]);
+    lines[count] = line;
+    count++;
+  });
+  if (header === null) fail('empty', 'the file is empty; expected a header row and one row per site', 'line 1');
+  if (count === 0) fail('empty', 'no rows after the header', 'line 2');
+  const rowLines = lines;
+  return {
+    xy: xy.slice(0, 2 * count),
+    weights: weights ? weights.slice(0, count) : null,
+    ids,
+    where: (i) => `line ${rowLines[i]}`,
+  };
+}
