@@ -78,53 +78,50 @@ export abstract class ClippedCells {
 
   private measure(): Measures {
     if (this.measured) return this.measured;
-    const n = this.triangulation.siteCount, m = this.mesh, xy = m.vertexXY;
+    const n = this.triangulation.siteCount, m = this.mesh, xy = m.vertexXY, origin = m.origin, next = m.next;
     const area = new Float64Array(n), centroid = new Float64Array(2 * n).fill(NaN), perimeter = new Float64Array(n);
-    for (let s = 0; s < n; s++) {
-      const f = this.faceOfSite[s];
-      if (f < 0) continue;
+    const face = m.face, faceEdge = m.faceEdge, faceSite = m.faceSite, H = origin.length;
+    // Cells in the order of their first half-edge, not of their sites: the mesh lays cells out along the
+    // sites' curve order, so neighbouring cells, and the vertices they share, are read from nearby memory.
+    for (let start = 0; start < H; start++) {
+      const f = face[start];
+      if (faceEdge[f] !== start) continue;
+      const s = faceSite[f];
+      if (s < 0 || this.faceOfSite[s] !== f) continue;
       // Relative to the cell's first vertex: coordinates far from the origin keep their precision, and
       // a thin cell far from its site does not cancel itself away.
-      const v0 = m.origin[m.faceEdge[f]];
+      const v0 = origin[start];
       const ox = xy[2 * v0], oy = xy[2 * v0 + 1];
-      let a2 = 0, cx = 0, cy = 0, per = 0;
-      const start = m.faceEdge[f];
+      let a2 = 0, cx = 0, cy = 0, per = 0, mx = 0, my = 0, count = 0;
+      // The cell's box, relative to its first vertex: the centroid must fall inside it.
+      let loX = 0, loY = 0, hiX = 0, hiY = 0;
       let e = start;
       do {
-        const p = m.origin[e], q = m.origin[m.next[e]];
+        const q = origin[next[e]];
+        const p = origin[e];
         const x0 = xy[2 * p] - ox, y0 = xy[2 * p + 1] - oy, x1 = xy[2 * q] - ox, y1 = xy[2 * q + 1] - oy;
         const cross = x0 * y1 - x1 * y0;
         a2 += cross;
         cx += (x0 + x1) * cross;
         cy += (y0 + y1) * cross;
-        per += Math.hypot(x1 - x0, y1 - y0);
-        e = m.next[e];
+        // sqrt, not Math.hypot (several times slower): coordinates within 2^±120 cannot overflow or underflow here.
+        const dx = x1 - x0, dy = y1 - y0;
+        per += Math.sqrt(dx * dx + dy * dy);
+        mx += x0; my += y0; count++;
+        if (x0 < loX) loX = x0; else if (x0 > hiX) hiX = x0;
+        if (y0 < loY) loY = y0; else if (y0 > hiY) hiY = y0;
+        e = next[e];
       } while (e !== start);
       area[s] = a2 / 2;
-      centroid[2 * s] = ox + cx / (3 * a2);
-      centroid[2 * s + 1] = oy + cy / (3 * a2);
       perimeter[s] = per;
-      if (!(Math.abs(a2) > 0) || !this.insideBox(f, centroid[2 * s], centroid[2 * s + 1])) {
-        // A cell too thin for the area formula to divide by: its vertex mean is as good a centre.
-        const vs = m.faceVertices(f);
-        let mx = 0, my = 0;
-        for (const v of vs) { mx += xy[2 * v] - ox; my += xy[2 * v + 1] - oy; }
-        centroid[2 * s] = ox + mx / vs.length;
-        centroid[2 * s + 1] = oy + my / vs.length;
-      }
+      const gx = cx / (3 * a2), gy = cy / (3 * a2);
+      // A cell too thin for the area formula to divide by: its vertex mean is as good a centre.
+      const thin = !(Math.abs(a2) > 0) || !(gx >= loX && gx <= hiX && gy >= loY && gy <= hiY);
+      centroid[2 * s] = ox + (thin ? mx / count : gx);
+      centroid[2 * s + 1] = oy + (thin ? my / count : gy);
     }
     this.measured = { area, centroid, perimeter };
     return this.measured;
-  }
-
-  private insideBox(f: number, x: number, y: number): boolean {
-    const xy = this.mesh.vertexXY;
-    let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-    for (const v of this.mesh.faceVertices(f)) {
-      minX = Math.min(minX, xy[2 * v]); maxX = Math.max(maxX, xy[2 * v]);
-      minY = Math.min(minY, xy[2 * v + 1]); maxY = Math.max(maxY, xy[2 * v + 1]);
-    }
-    return x >= minX && x <= maxX && y >= minY && y <= maxY;
   }
 
   /** Area of each site's cell (0 without a cell). */
@@ -178,8 +175,26 @@ export abstract class ClippedCells {
 
   /** For every site, how many cells its cell shares a boundary with. */
   neighborCounts(): Int32Array {
-    const n = this.triangulation.siteCount, out = new Int32Array(n);
-    for (let s = 0; s < n; s++) if (this.faceOfSite[s] >= 0) out[s] = this.cellNeighbors(s).sites.length;
+    const n = this.triangulation.siteCount, out = new Int32Array(n), m = this.mesh;
+    const face = m.face, twin = m.twin, next = m.next, faceSite = m.faceSite, faceEdge = m.faceEdge, H = m.origin.length;
+    // Cells in the order of their first half-edge, as measure() walks them (nearby cells, nearby memory).
+    for (let start = 0; start < H; start++) {
+      const f = face[start];
+      if (faceEdge[f] !== start) continue;
+      const s = faceSite[f];
+      if (s < 0 || this.faceOfSite[s] !== f) continue;
+      // Runs of edges with the same site across count once (cellNeighbors merges them the same way),
+      // including a run that wraps around the cell's first edge.
+      let e = start, count = 0, last = -1, first = -2;
+      do {
+        const other = faceSite[face[twin[e]]];
+        if (other >= 0 && other !== last) { count++; if (first === -2) first = other; }
+        last = other;
+        e = next[e];
+      } while (e !== start);
+      if (count > 1 && last === first) count--;
+      out[s] = count;
+    }
     return out;
   }
 

@@ -114,39 +114,6 @@ function pieceMeasures(list: CellPieceList): CellMeasures {
   return { count: n, area, perimeter, centroid, neighbors: null, weights: null };
 }
 
-/**
- * Neighbour counts straight from the mesh, as ClippedCells.neighborCounts
- * counts them (a run of edges to one cell counts once; a cell met again
- * after another counts once more) but without allocating per cell.
- */
-function meshNeighborCounts(d: ClippedCells): Int32Array {
-  const n = d.triangulation.siteCount, m = d.mesh, out = new Int32Array(n);
-  // Cells in the order of their first half-edge, which follows the construction's space-filling curve: neighbouring
-  // cells then share memory, where site order jumps across the mesh on random input.
-  const bySlot = new Int32Array(m.origin.length).fill(-1);
-  for (let s = 0; s < n; s++) if (d.faceOfSite[s] >= 0) bySlot[m.faceEdge[d.faceOfSite[s]]] = s;
-  for (let slot = 0; slot < bySlot.length; slot++) {
-    const s = bySlot[slot];
-    if (s < 0) continue;
-    const f = d.faceOfSite[s];
-    const start = m.faceEdge[f];
-    let e = start, count = 0, last = -1, first = -2;
-    do {
-      const other = m.faceSite[m.face[m.twin[e]]];
-      if (other < 0) last = -1;
-      else {
-        if (other !== last) { count++; if (first === -2) first = other; }
-        last = other;
-      }
-      e = m.next[e];
-    } while (e !== start);
-    // The walk's last run and first run may be one run split by the start.
-    if (count > 1 && last === first) count--;
-    out[s] = count;
-  }
-  return out;
-}
-
 export function measuresOf(source: CellSource): CellMeasures {
   if (source instanceof ClippedCells) {
     return {
@@ -154,7 +121,7 @@ export function measuresOf(source: CellSource): CellMeasures {
       area: source.cellAreas(),
       perimeter: source.cellPerimeters(),
       centroid: source.cellCentroids(),
-      neighbors: meshNeighborCounts(source),
+      neighbors: source.neighborCounts(),
       weights: source.triangulation.weights,
     };
   }
