@@ -14,11 +14,19 @@
 //   compare(facts, ref, points, input) => string | null   a note on stderr after scipy ran
 // Adding a case is one more object here (plus an OPS entry in scipy_ref.py if scipy can
 // do the same work).
-import { SiteLocator, balanceTerritories, clipToStudyArea, compareDistance, triangulate, voronoi } from '../dist/index.js';
+import {
+  SiteLocator, balanceTerritories, clipToStudyArea, compareDistance, naturalNeighbor, relax, triangulate, voronoi,
+} from '../dist/index.js';
 import { makeRng } from './distributions.mjs';
 
 /** Number of query points of the `nearest` case, whatever the number of sites. */
 export const NEAREST_QUERIES = 1e6;
+
+/** Steps of the `lloyd` case. */
+export const LLOYD_STEPS = 50;
+
+/** Columns (and rows) of the `interpolate` case's grid. */
+export const INTERPOLATION_GRID = 1000;
 
 /** The exact bounding box of interleaved points. */
 function boundingBox(points) {
@@ -240,5 +248,33 @@ export const cases = [
         `converged ${r.converged}\n`);
       return null;
     },
+  },
+  {
+    // Lloyd relaxation: LLOYD_STEPS steps (tolerance 0, so every step runs) in the points' bounding
+    // box; each step builds one clipped diagram, so compare with the `voronoi` row of the same run
+    // (one build at the same n). Meant for n = 1e4. The energy drop is logged from the warm-up run.
+    name: 'lloyd',
+    setup: (points) => ({ clip: boundingBox(points), steps: LLOYD_STEPS, tolerance: 0 }),
+    run: (points, input) => relax(points, input),
+    scipy: null,
+    retain: (r) => r.sites,
+    keep: (r) => {
+      process.stderr.write(`lloyd: ${r.steps} steps, energy ${r.energy[0].toExponential(4)} -> ` +
+        `${r.energy[r.steps].toExponential(4)}, G ${r.normalizedMoment.toFixed(6)}\n`);
+      return null;
+    },
+  },
+  {
+    // Natural-neighbour interpolation of smooth values at the n sites onto an INTERPOLATION_GRID
+    // square grid over their bounding box, triangulation included: compare with the `voronoi` row
+    // of the same run. Meant for n = 1e4.
+    name: 'interpolate',
+    setup: (points) => {
+      const values = new Float64Array(points.length / 2);
+      for (let i = 0; i < values.length; i++) values[i] = Math.sin(3 * points[2 * i]) + Math.cos(2 * points[2 * i + 1]);
+      return { values, grid: { ...boundingBox(points), columns: INTERPOLATION_GRID, rows: INTERPOLATION_GRID } };
+    },
+    run: (points, input) => naturalNeighbor(points, input.values).grid(input.grid),
+    scipy: null,
   },
 ];

@@ -42,15 +42,9 @@ export function writeGeoJSON(source: CellSource, sink: TextSink, options: GeoJSO
   // A diagram face walked straight from the mesh: bounded faces are counter-clockwise already. Each vertex is
   // formatted once and its text reused by the (usually three) cells around it: number formatting is most of the cost.
   // Filled by push: a large `new Array(n)` would start out sparse (slow dictionary elements in V8).
-  const posText: string[] = [];
-  for (let v = diagram === null ? 0 : diagram.mesh.vertexXY.length >> 1; v > 0; v--) posText.push('');
   const pos = (v: number): string => {
-    let t = posText[v];
-    if (t === '') {
-      const xy = diagram!.mesh.vertexXY;
-      t = posText[v] = '[' + fmt(xy[2 * v]) + ',' + fmt(xy[2 * v + 1]) + ']';
-    }
-    return t;
+    const xy = diagram!.mesh.vertexXY;
+    return '[' + fmt(xy[2 * v]) + ',' + fmt(xy[2 * v + 1]) + ']';
   };
   const faceRing = (f: number): string => {
     const m = diagram!.mesh, start = m.faceEdge[f];
