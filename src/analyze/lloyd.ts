@@ -4,10 +4,17 @@ import { readClipRegion, type ClipRegion } from '../diagram/region.js';
 import { voronoi, type VoronoiDiagram } from '../diagram/voronoi.js';
 import { triangulate } from '../triangulate/triangulation.js';
 import { DensitySum, MomentSum, normalizedSecondMoment, polygonSecondMoment } from './second-moment.js';
+import { clipToStudyArea, studyAreaBounds, type StudyAreaCells } from './study-area/study-area-cells.js';
+import type { StudyAreaInput } from './study-area/area-input.js';
 
 export interface RelaxOptions {
-  /** The region: a rectangle or a convex polygon (as for voronoi). Required. */
-  clip: ClipRegion;
+  /** The region: a rectangle or a convex polygon (as for voronoi). Required unless `area` is given. */
+  clip?: ClipRegion;
+  /**
+   * A study area (polygon with holes, or several; as for clipToStudyArea): cells are cut to it and sites
+   * move to the centroids of their pieces. The diagram is clipped to `clip`, by default the area's bounding box.
+   */
+  area?: StudyAreaInput;
   /** Most steps to take, a whole number >= 0. Default 100. */
   steps?: number;
   /** Stop once no site moved farther than this in a step (coordinate units, >= 0). Default 1e-9 times the region's larger side. */
@@ -25,6 +32,8 @@ export interface RelaxResult {
   sites: Float64Array;
   /** The Voronoi diagram of the final sites, clipped to the region. */
   diagram: VoronoiDiagram;
+  /** With `area`: the final cells cut to the study area; otherwise null. */
+  studyArea: StudyAreaCells | null;
   /** Steps taken. */
   steps: number;
   /** Energy Σ ∫_cell ρ |x − site|² of the sites before any step, then after each: steps + 1 entries. */
@@ -33,7 +42,7 @@ export interface RelaxResult {
   moves: Float64Array;
   /** The last step moved no site farther than the tolerance. */
   converged: boolean;
-  /** G = E n / (2 A²) of the final sites (n cells, region area A); NaN under a density. */
+  /** G = E n / (2 A²) of the final sites (n cells, region or study area A); NaN under a density. */
   normalizedMoment: number;
   /** Input points that came to share a site with an earlier, distinct input point during the relaxation (ascending). */
   merged: Int32Array;
@@ -49,7 +58,7 @@ const optionError = (message: string, field: string) => new InputError('bad-opti
 
 function readOptions(options: RelaxOptions): { steps: number; tolerance: number | null } {
   if (options === null || typeof options !== 'object') throw optionError('relax needs an options object with a clip region', 'options');
-  if (options.clip === undefined) throw optionError('clip is required: the region the sites are relaxed in', 'clip');
+  if (options.clip === undefined && options.area === undefined) throw optionError('clip (or a study area) is required: the region the sites are relaxed in', 'clip');
   const { steps = 100, tolerance, density, onProgress } = options;
   if (typeof steps !== 'number' || !Number.isInteger(steps) || steps < 0) {
     throw optionError(`steps must be a whole number >= 0, got ${String(steps)}`, 'steps');
@@ -74,9 +83,13 @@ function readOptions(options: RelaxOptions): { steps: number; tolerance: number 
  */
 export function relax(points: PointInput, options: RelaxOptions): RelaxResult {
   const { steps, tolerance } = readOptions(options);
-  const region = readClipRegion(options.clip);
+  const area = options.area;
+  // studyAreaBounds reads (and so checks) the area before any work.
+  const region = readClipRegion(options.clip ?? studyAreaBounds(area!));
   const build: CellBuilder = (xy) => voronoi(xy, { clip: region });
-  return relaxWith(readPoints(points), build, regionSize(region), steps, tolerance, options);
+  const size = regionSize(region);
+  const cut = area === undefined ? null : (d: VoronoiDiagram) => clipToStudyArea(d, area);
+  return relaxWith(readPoints(points), build, size, steps, tolerance, options, cut);
 }
 
 function regionSize(region: Float64Array): { side: number; area: number } {
@@ -90,14 +103,15 @@ function regionSize(region: Float64Array): { side: number; area: number } {
 
 function relaxWith(
   pos: Float64Array, build: CellBuilder, size: { side: number; area: number }, steps: number,
-  tolerance: number | null, options: RelaxOptions,
+  tolerance: number | null, options: RelaxOptions, cut: ((d: VoronoiDiagram) => StudyAreaCells) | null,
 ): RelaxResult {
   const tol = tolerance ?? 1e-9 * size.side;
   const { density, onProgress } = options;
   let d = buildMerging(pos, build);
   const initialSite = d.triangulation.siteOfInput.slice();
   const energy: number[] = [], moves: number[] = [];
-  let m = measure(d, density);
+  let pieces = cut?.(d) ?? null;
+  let m = pieces ? measurePieces(pieces, density) : measure(d, density);
   energy.push(m.energy);
   onProgress?.({ step: 0, energy: m.energy, largestMove: NaN });
   let converged = false;
@@ -112,21 +126,23 @@ function relaxWith(
       pos[2 * i + 1] = y;
     }
     d = buildMerging(pos, build);
-    m = measure(d, density);
+    pieces = cut?.(d) ?? null;
+    m = pieces ? measurePieces(pieces, density) : measure(d, density);
     energy.push(m.energy);
     moves.push(largest);
     converged = largest <= tol;
     onProgress?.({ step, energy: m.energy, largestMove: largest });
   }
-  const cells = d.faceOfSite.reduce((k, f) => (f >= 0 ? k + 1 : k), 0);
+  const cells = pieces ? pieces.siteCount - pieces.sitesWithoutPiece.length : d.faceOfSite.reduce((k, f) => (f >= 0 ? k + 1 : k), 0);
   return {
     sites: pos,
     diagram: d,
+    studyArea: pieces,
     steps: moves.length,
     energy: Float64Array.from(energy),
     moves: Float64Array.from(moves),
     converged,
-    normalizedMoment: density ? NaN : normalizedSecondMoment(m.energy, cells, size.area),
+    normalizedMoment: density ? NaN : normalizedSecondMoment(m.energy, cells, pieces ? pieces.studyAreaSize : size.area),
     merged: mergedDuring(initialSite, d.triangulation.siteOfInput),
   };
 }
@@ -222,6 +238,45 @@ function measure(d: VoronoiDiagram, density: ((x: number, y: number) => number) 
     if (dsum.mass > 0) {
       centroids[2 * s] = sx + dsum.mx / dsum.mass;
       centroids[2 * s + 1] = sy + dsum.my / dsum.mass;
+    }
+  }
+  return { energy, centroids };
+}
+
+/**
+ * measure() for cells cut to a study area: each piece's rings (outer counter-clockwise, holes clockwise) add
+ * their signed fan moments about the site, so holes subtract themselves. Under a density the fan triangles of a
+ * non-convex ring reach outside the piece (into the area's bounding box, within the diagram's region), where
+ * their signed contributions cancel.
+ */
+function measurePieces(cut: StudyAreaCells, density: ((x: number, y: number) => number) | undefined): { energy: number; centroids: Float64Array } {
+  const site = cut.diagram.triangulation.siteXY, n = cut.siteCount;
+  const centroids = cut.clippedCentroids();
+  const sum = new MomentSum(), dsum = new DensitySum();
+  let energy = 0;
+  for (let s = 0; s < n; s++) {
+    if (Number.isNaN(centroids[2 * s])) continue;
+    const sx = site[2 * s], sy = site[2 * s + 1];
+    sum.reset(); dsum.reset();
+    for (const piece of cut.pieces(s)) {
+      for (const ring of [piece.outer, ...piece.holes]) {
+        const m = ring.length >> 1;
+        for (let j = 0; j < m; j++) {
+          const k = j + 1 === m ? 0 : j + 1;
+          sum.add(ring[2 * j] - sx, ring[2 * j + 1] - sy, ring[2 * k] - sx, ring[2 * k + 1] - sy);
+          if (density && j > 0 && k > 0) {
+            dsum.addTriangle(ring[0], ring[1], ring[2 * j], ring[2 * j + 1], ring[2 * k], ring[2 * k + 1], sx, sy, density, badDensity);
+          }
+        }
+      }
+    }
+    // The pieces' own centroid (clippedCentroids) is kept where the fan sums cannot divide.
+    if (density) {
+      energy += dsum.moment;
+      if (dsum.mass > 0) { centroids[2 * s] = sx + dsum.mx / dsum.mass; centroids[2 * s + 1] = sy + dsum.my / dsum.mass; }
+    } else {
+      energy += sum.secondMoment;
+      if (sum.a2 > 0) { centroids[2 * s] = sx + sum.mx6 / (3 * sum.a2); centroids[2 * s + 1] = sy + sum.my6 / (3 * sum.a2); }
     }
   }
   return { energy, centroids };
