@@ -188,6 +188,16 @@ export const cases = [
     size: (d) => d.mesh.faceCount - 1,
   },
   {
+    // The Minkowski p = 3 diagram (curved edges as polylines, default tolerance), built and
+    // clipped to the bounding box as the `voronoi` case is: run both in one run for the ratio.
+    // scipy has no Lp Voronoi diagram to compare with.
+    name: 'metric-p3',
+    setup: (points) => ({ clip: boundingBox(points), metric: 3 }),
+    run: (points, input) => voronoi(points, input),
+    scipy: null,
+    size: (d) => d.mesh.faceCount - 1,
+  },
+  {
     // The chessboard (L-infinity) diagram, likewise.
     name: 'metric-linf',
     setup: (points) => ({ clip: boundingBox(points), metric: 'Linf' }),

@@ -15,8 +15,10 @@ export {
 } from './triangulate/json.js';
 export type { TriangulationPlain } from './triangulate/json.js';
 export { voronoi, VoronoiDiagram } from './diagram/voronoi.js';
+export { ClippedCells } from './diagram/cells.js';
 export type { VoronoiOptions, VoronoiMethod, CellNeighbors } from './diagram/voronoi.js';
 export { MetricVoronoiDiagram } from './diagram/metric/diagram.js';
+export { MinkowskiVoronoiDiagram } from './diagram/minkowski/diagram.js';
 export type { Metric } from './diagram/metric/options.js';
 export type { ExactMetric } from './diagram/metric/bisector.js';
 export { readClipRegion } from './diagram/region.js';
@@ -31,6 +33,7 @@ export { nearestValue } from './analyze/interpolate/nearest-value.js';
 export type { Interpolator } from './analyze/interpolate/interpolator.js';
 export type { GridSpec } from './analyze/interpolate/grid.js';
 export { clipToStudyArea, studyAreaBounds, StudyAreaCells } from './analyze/study-area/study-area-cells.js';
+export type { Box } from './core/bounds.js';
 export { AreaInputError } from './analyze/study-area/area-input.js';
 export type { StudyAreaInput, AreaPolygon } from './analyze/study-area/area-input.js';
 export type { StudyAreaPiece } from './analyze/study-area/pieces.js';

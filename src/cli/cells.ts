@@ -28,7 +28,7 @@ export const SITE_OPTIONS: OptionSpec[] = [
 
 const OPTIONS: OptionSpec[] = [
   ...SITE_OPTIONS,
-  { name: 'metric', value: 'L2|L1|Linf', help: 'distance: straight line (default), city block, or chessboard' },
+  { name: 'metric', value: 'L2|L1|Linf|p', help: 'distance: straight line (default), city block, chessboard, or Minkowski p >= 1 (e.g. 3)' },
   { name: 'balance', help: 'balanced territories: cells sized by the --weight column (equal without it; repeated places add up)' },
   { name: 'clip', value: 'minX,minY,maxX,maxY', help: 'clip the cells to this rectangle' },
   { name: 'clip-file', value: 'area.geojson', help: 'clip the cells to the polygon(s) of a GeoJSON file (holes and non-convex outlines: GeoJSON output, cells in pieces)' },
@@ -79,8 +79,10 @@ export function runCells(argv: readonly string[]): number {
   refuseTogether(args, 'clip', 'clip-file', 'give one clip region');
   refuseTogether(args, 'balance', 'metric', 'balanced territories are power diagrams, Euclidean only');
   const metricText = stringOption(args, 'metric') ?? 'L2';
-  const metric = METRICS[metricText.toLowerCase()];
-  if (metric === undefined) throw usageError(`--metric takes L2, L1 or Linf, got '${metricText}'`);
+  // A name, or the exponent p >= 1 of a Minkowski distance written as a plain number (3, 1.5).
+  const exponent = /^\d+(\.\d+)?$/.test(metricText) ? Number(metricText) : NaN;
+  const metric: 'L2' | 'L1' | 'Linf' | number | undefined = METRICS[metricText.toLowerCase()] ?? (exponent >= 1 ? exponent : undefined);
+  if (metric === undefined) throw usageError(`--metric takes L2, L1, Linf or a number p >= 1 (Minkowski), got '${metricText}'`);
   if (metric !== 'L2' && args.values.has('weight')) throw usageError('--weight and --metric cannot be used together: weighted (power) cells need the Euclidean metric (L2)');
   if (args.values.has('triangulation') && format !== 'svg') throw usageError('--triangulation applies to SVG output only');
   if (args.values.has('decimals') && format !== 'svg' && format !== 'geojson') throw usageError('--decimals applies to GeoJSON and SVG output only');

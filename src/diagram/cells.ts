@@ -1,4 +1,5 @@
 import { InputError } from '../core/errors.js';
+import { hilbertSort } from '../core/hilbert.js';
 import { orient } from '../core/predicates.js';
 import type { HalfEdgeMesh } from '../mesh/mesh.js';
 import type { Triangulation } from '../triangulate/triangulation.js';
@@ -35,8 +36,13 @@ export abstract class ClippedCells {
 
   /** The site nearest to (x, y). */
   abstract nearest(x: number, y: number): number;
-  /** nearest() for many points (interleaved x, y). */
-  abstract nearestMany(xy: Float64Array | ArrayLike<number>): Int32Array;
+  /** nearest() for many points (interleaved x, y), answered along a space-filling curve so that each walk starts near the last. */
+  nearestMany(xy: Float64Array | ArrayLike<number>): Int32Array {
+    const m = xy.length >> 1, out = new Int32Array(m);
+    const pts = Float64Array.from(xy as ArrayLike<number>);
+    for (const i of hilbertSort(pts).ids) out[i] = this.nearest(pts[2 * i], pts[2 * i + 1]);
+    return out;
+  }
   /** The k nearest sites, nearest first. */
   abstract kNearest(x: number, y: number, k: number): Int32Array;
 

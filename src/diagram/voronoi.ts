@@ -9,6 +9,7 @@ import { sweepTriangulation } from './sweep/sweep.js';
 import { paddedBounds, readClipRegion, type ClipRegion } from './region.js';
 import { MetricVoronoiDiagram } from './metric/diagram.js';
 import { readMetric, type Metric } from './metric/options.js';
+import { MinkowskiVoronoiDiagram } from './minkowski/diagram.js';
 
 export interface VoronoiOptions {
   /**
@@ -27,10 +28,15 @@ export interface VoronoiOptions {
   /**
    * The distance cells are built for: 'L2' (Euclidean, default), 'L1',
    * 'Linf', or p >= 1 (1, 2 and Infinity route to the exact engines; see
-   * MetricVoronoiDiagram). Any metric but 'L2' returns a MetricVoronoiDiagram.
+   * MetricVoronoiDiagram). 'L1' and 'Linf' return a MetricVoronoiDiagram,
+   * any other p a MinkowskiVoronoiDiagram (curved edges, see `tolerance`).
    */
   metric?: Metric;
-  /** For Minkowski metrics with curved bisectors: the distance edges may stray from the true curve. Must be positive. */
+  /**
+   * For Minkowski metrics with curved bisectors: the largest Euclidean
+   * distance an edge's polyline may stray from the true curve. Must be
+   * positive. Default: 1e-3 of the sites' mean spacing, sqrt(region area / site count).
+   */
   tolerance?: number;
   /**
    * One weight per input point: the power diagram, cells by least
@@ -65,7 +71,7 @@ export class VoronoiDiagram extends ClippedCells {
   /** The site nearest to (x, y); ties go to the smallest site index. */
   nearest(x: number, y: number): number { return this.queries().nearest(x, y); }
   /** nearest() for many points (interleaved x, y), answered along a space-filling curve. */
-  nearestMany(xy: Float64Array | ArrayLike<number>): Int32Array { return this.queries().nearestMany(xy); }
+  override nearestMany(xy: Float64Array | ArrayLike<number>): Int32Array { return this.queries().nearestMany(xy); }
   /** The k nearest sites by (distance, site index). */
   kNearest(x: number, y: number, k: number): Int32Array { return this.queries().kNearest(x, y, k); }
 }
@@ -77,8 +83,8 @@ export class VoronoiDiagram extends ClippedCells {
  * topology from its sites, keeping their numbering.
  */
 export function voronoi(input: PointInput | Triangulation, options?: VoronoiOptions & { metric?: 'L2' | 2 }): VoronoiDiagram;
-export function voronoi(input: PointInput | Triangulation, options: VoronoiOptions): VoronoiDiagram | MetricVoronoiDiagram;
-export function voronoi(input: PointInput | Triangulation, options: VoronoiOptions = {}): VoronoiDiagram | MetricVoronoiDiagram {
+export function voronoi(input: PointInput | Triangulation, options: VoronoiOptions): VoronoiDiagram | MetricVoronoiDiagram | MinkowskiVoronoiDiagram;
+export function voronoi(input: PointInput | Triangulation, options: VoronoiOptions = {}): VoronoiDiagram | MetricVoronoiDiagram | MinkowskiVoronoiDiagram {
   const method = options.method === undefined ? 'dual' : options.method;
   if (method !== 'dual' && method !== 'sweep') {
     throw new InputError('bad-option', `method must be 'dual' or 'sweep', got ${String(method)}`, -1, 'method');
@@ -99,6 +105,7 @@ export function voronoi(input: PointInput | Triangulation, options: VoronoiOptio
   if (metric !== 'L2') {
     const tri = input instanceof Triangulation ? input : triangulate(input);
     const region = options.clip === undefined ? paddedBounds(tri.siteXY, tri.siteCount) : readClipRegion(options.clip);
+    if (typeof metric === 'number') return new MinkowskiVoronoiDiagram(tri, region, metric, options.tolerance);
     return new MetricVoronoiDiagram(tri, region, metric);
   }
   let tri: Triangulation;

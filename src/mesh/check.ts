@@ -379,9 +379,14 @@ function checkTriangulation(s: Shape, c: Cycles, p: Problems): void {
       if (onBoundary[b]) p.add(`outer boundary passes vertex ${b} more than once`);
       onBoundary[b] = 1;
       const ax = xy[2 * a], ay = xy[2 * a + 1], bx = xy[2 * b], by = xy[2 * b + 1], dx = xy[2 * d], dy = xy[2 * d + 1];
-      if (orient(ax, ay, bx, by, dx, dy) > 0) p.add(`outer boundary is not convex: it turns left at vertex ${b} (half-edges ${e}, ${next[e]})`);
+      const o = orient(ax, ay, bx, by, dx, dy);
+      if (o > 0) p.add(`outer boundary is not convex: it turns left at vertex ${b} (half-edges ${e}, ${next[e]})`);
       const ux = bx - ax, uy = by - ay, wx = dx - bx, wy = dy - by;
-      turning += Math.atan2(ux * wy - uy * wx, ux * wx + uy * wy);
+      // The size of the turn from floating point, its direction from the exact sign: at the sharp corners of a
+      // sliver (a cross product of 1e-32 against lengths of 1) the float cross product can have either sign,
+      // and a turn of almost pi would count the wrong way round (found by the sweep's property test).
+      const size = Math.atan2(Math.abs(ux * wy - uy * wx), ux * wx + uy * wy);
+      turning += o < 0 ? -size : size;
       e = next[e];
     }
     // Clockwise once around: -2*pi. Tolerance: common practice, no source.

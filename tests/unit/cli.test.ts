@@ -73,7 +73,7 @@ describe('bad input: clear message, non-zero exit, no output file', () => {
   });
   it('unknown options and commands (usage, exit 2)', () => {
     expectFailure(ambit('cells', 'sites.csv', '--colour', 'red', '--out', 'out.geojson'), 2, /unknown option --colour; see 'ambit cells --help'/);
-    expectFailure(ambit('cells', 'sites.csv', '--metric', 'L7', '--out', 'out.geojson'), 2, /--metric takes L2, L1 or Linf/);
+    expectFailure(ambit('cells', 'sites.csv', '--metric', 'L7', '--out', 'out.geojson'), 2, /--metric takes L2, L1, Linf or a number p >= 1/);
     expectFailure(ambit('cells', 'sites.csv', '--out', 'out.txt'), 2, /cannot tell the output format/, 'out.txt');
     expectFailure(ambit('cells', 'sites.csv'), 2, /needs --out/);
     expectFailure(ambit('cells', 'sites.csv', '--out'), 2, /--out needs a value/);
@@ -116,6 +116,14 @@ describe('happy paths', () => {
     expect(g.features[0].properties).toMatchObject({ site: 0, id: 'Depot, north', weight: 3 });
     const total = g.features.reduce((a: number, f: { properties: { area: number } }) => a + f.properties.area, 0);
     expect(total).toBeCloseTo(100, 9); // the clip rectangle's area, up to rounding of the cell sums
+  });
+  it('a Minkowski exponent as the metric (p = 3), written as GeoJSON', () => {
+    const r = ambit('cells', 'sites.csv', '--metric', '3', '--clip', '0,0,10,10', '--out', 'p3.geojson');
+    expect(r.code, r.err).toBe(0);
+    const g = JSON.parse(readFileSync(join(dir, 'p3.geojson'), 'utf8'));
+    expect(geoJSONProblems(g)).toEqual([]);
+    const total = g.features.reduce((a: number, f: { properties: { area: number } }) => a + f.properties.area, 0);
+    expect(total).toBeCloseTo(100, 9);
   });
   it('SVG with the triangulation, L1 metric, clip polygon from a file', () => {
     write('hex.geojson', fc(polygon([[0, 0], [10, 0], [12, 5], [10, 10], [0, 10], [-2, 5], [0, 0]])));

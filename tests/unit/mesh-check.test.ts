@@ -417,3 +417,13 @@ describe('assertMesh', () => {
     expect(() => assertMesh(rhombusBad(), { delaunay: false })).not.toThrow();
   });
 });
+
+describe('checkMesh on slivers', () => {
+  it('a triangle 1e-32 thin winds once, whichever construction built it (found by the sweep property test)', async () => {
+    const { triangulate, voronoi } = await import('../../src/index.js');
+    // orient of these three is +4.9e-32: a real, counter-clockwise triangle with two corners of almost pi.
+    const pts = [1, 2.9999999999999996, -0.9999999999999999, 3.0000000000000004, 0, 3];
+    expect(checkMesh(triangulate(pts).toMesh()).problems).toEqual([]);
+    expect(checkMesh(voronoi(pts, { method: 'sweep' }).triangulation.toMesh()).problems).toEqual([]);
+  });
+});

@@ -5,12 +5,13 @@ import type { Triangulation } from '../../triangulate/triangulation.js';
 import { MIN_SPACING } from '../dual.js';
 import { bisector, type ExactMetric } from './bisector.js';
 import { clipCell, type Cell, type ClipContext } from './cell.js';
-import { corner, meet, sideOf, throughLine, type Line, type Pt } from './geometry.js';
+import { corner, meet, sideOf, throughLine, U, type Line, type Pt } from './geometry.js';
 import { assembleCells, CellStore } from './assemble.js';
 import { SiteHeap } from './heap.js';
 import { dyAdd, dyMul, dySign, dySub, type Dyadic } from './dyadic.js';
 import { hilbertSort } from '../../core/hilbert.js';
 import { renumbered } from './graph.js';
+import { BAIL, ballReach, CORNER_STRIDE, extent, FloatCell } from './fastcell.js';
 
 /** Label of the temporary box sides used for sites outside the region (never survives). */
 const BOX_LABEL = -(2 ** 30);
@@ -25,19 +26,22 @@ const BOX_LABEL = -(2 ** 30);
  * The k sites nearest a point are connected in the Delaunay graph (a known
  * property of order-k Voronoi diagrams, from memory), so the search visits
  * sites in order of Euclidean distance. It stops once the next one is
- * farther than 2R c, where R is the largest metric distance from the site
- * to its cell so far and c bounds the Euclidean length of a vector of
- * metric length 1 (1 for L1, sqrt 2 for L-infinity): a site u can only take
- * a cell point q when d(q,u) <= d(q,s) <= R, so d(s,u) <= 2R.
+ * farther than max over corners q of |q - s| + c d(q,s), where c bounds the
+ * Euclidean length of a vector of metric length 1 (1 for L1, sqrt 2 for
+ * L-infinity): a site u can only take a cell point q when d(q,u) <= d(q,s),
+ * and the balls B(q, d(q,s)) of all cell points lie in that disc (see
+ * ballReach in fastcell.ts).
  */
 export function metricCells(tri: Triangulation, region: Float64Array, metric: ExactMetric): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
   const n = tri.siteCount;
-  checkSpacing(tri, region);
+  const edges = tri.edges();
+  checkSpacing(tri, region, edges);
   // Cells in the order of a space-filling curve, and the sites renumbered by
   // it (rank k is site order[k]), so that a cell's neighbourhood lies in
-  // nearby memory; labels go back to site ids when a cell is stored.
+  // nearby memory; cells are stored and assembled by rank (labels too), and
+  // only the mesh's faces are numbered by site.
   const order = n > 1 ? hilbertSort(tri.siteXY.subarray(0, 2 * n)).ids : Uint32Array.of(0);
-  const { xy, off, adj } = renumbered(tri, order);
+  const { xy, off, adj } = renumbered(tri, order, edges);
   const m = region.length >> 1;
   const regionLines: Line[] = [];
   const regionPts: Pt[] = [];
@@ -48,10 +52,11 @@ export function metricCells(tri: Triangulation, region: Float64Array, metric: Ex
   }
   const regionLabels = regionLines.map((_, j) => -1 - j);
   const box = outerBox(xy, n, region);
-  const reach = metric === 'L1' ? 2 : 2 * Math.SQRT2;
   const heap = new SiteHeap(Math.min(n, 1024));
   const seen = new Int32Array(n).fill(-1);
-  const store = new CellStore(n);
+  let stamp = 0;
+  // About seven corners per cell on uniform input; room for eight saves the regrowth.
+  const store = new CellStore(n, 8 * n);
   let site = 0;
   const ctx: ClipContext = {
     get site() { return site; },
@@ -60,43 +65,85 @@ export function metricCells(tri: Triangulation, region: Float64Array, metric: Ex
     x: (s) => xy[2 * s],
     y: (s) => xy[2 * s + 1],
   };
-  for (let k = 0; k < n; k++) {
-    site = k;
-    const sx = xy[2 * site], sy = xy[2 * site + 1];
-    const inside = strictlyInside(region, sx, sy);
-    const cell: Cell = inside
-      ? { pts: regionPts.slice(), lines: regionLines.slice(), labels: regionLabels.slice() }
-      : boxCell(box);
-    let limit = reach * farthest(cell, sx, sy, metric) * (1 + 2 ** -30);
+  const fast = new FloatCell(metric);
+  const slow = new ObjectCell(ctx);
+
+  /** The best-first search for one cell; false when the float cell gave up (it is then to be built on the exact path). */
+  function search(work: CellWork): boolean {
+    let R = work.farthest(), limit = extent[0];
     heap.clear();
-    seen[site] = site;
+    const mark = stamp++;
+    seen[site] = mark;
     for (let e = off[site]; e < off[site + 1]; e++) {
       const u = adj[e];
-      seen[u] = site;
+      seen[u] = mark;
       heap.push(u, dist2(xy, site, u));
     }
     while (heap.size > 0) {
       if (heap.topKey() > limit * limit) break;
       const u = heap.pop();
       const ux = xy[2 * u], uy = xy[2 * u + 1];
-      if (!cannotClip(cell, metric, sx, sy, ux, uy, limit / reach)) {
-        if (clipCell(cell, bisector(metric, sx, sy, ux, uy), u, ctx)) limit = reach * farthest(cell, sx, sy, metric) * (1 + 2 ** -30);
+      if (!work.cannotClip(ux, uy, R)) {
+        const r = work.clip(u, ux, uy);
+        if (r === BAIL) return false;
+        if (r > 0) { R = work.farthest(); limit = extent[0]; }
       }
       for (let e = off[u]; e < off[u + 1]; e++) {
         const w = adj[e];
-        if (seen[w] === site) continue;
-        seen[w] = site;
+        if (seen[w] === mark) continue;
+        seen[w] = mark;
         heap.push(w, dist2(xy, site, w));
       }
     }
-    const done = inside ? cell : clipToRegion(cell, regionLines, order[site]);
-    if (done) for (let i = 0; i < done.labels.length; i++) if (done.labels[i] >= 0) done.labels[i] = order[done.labels[i]];
-    store.add(order[site], done ? done.pts : [], done ? done.labels : []);
+    return true;
   }
-  return assembleCells(store, n, 'voronoi');
+
+  for (let k = 0; k < n; k++) {
+    site = k;
+    const sx = xy[2 * site], sy = xy[2 * site + 1];
+    const inside = strictlyInside(region, sx, sy);
+    if (inside) {
+      fast.start(sx, sy, regionPts, regionLines, regionLabels);
+      if (search(fast)) {
+        store.addFlat(site, fast.C, CORNER_STRIDE, fast.pc, fast.lab, fast.n);
+        continue;
+      }
+    }
+    slow.start(sx, sy, inside
+      ? { pts: regionPts.slice(), lines: regionLines.slice(), labels: regionLabels.slice() }
+      : boxCell(box));
+    search(slow);
+    const cell = slow.cell;
+    const done = inside ? cell : clipToRegion(cell, regionLines, order[site]);
+    store.add(site, done ? done.pts : [], done ? done.labels : []);
+  }
+  return assembleCells(store, n, 'voronoi', order);
 }
 
-const U = 2 ** -53;
+/** What the search needs of a cell under construction. */
+interface CellWork {
+  /** Largest metric distance from the site to the cell (rounded up); sets extent[0], the Euclidean radius the search must cover. */
+  farthest(): number;
+  /** True only when site (ux, uy) certainly takes nothing of the cell. */
+  cannotClip(ux: number, uy: number, R: number): boolean;
+  /** Clips by site u: 1 when the cell changed, 0 when not, BAIL when the float cell gives up. */
+  clip(u: number, ux: number, uy: number): number;
+}
+
+/** The exact path: Pt and Line objects, every decision exact (cell.ts). */
+class ObjectCell implements CellWork {
+  cell: Cell = { pts: [], lines: [], labels: [] };
+  private sx = 0;
+  private sy = 0;
+  constructor(private readonly ctx: ClipContext) {}
+  start(sx: number, sy: number, cell: Cell): void { this.sx = sx; this.sy = sy; this.cell = cell; }
+  farthest(): number { return farthest(this.cell, this.sx, this.sy, this.ctx.metric); }
+  cannotClip(ux: number, uy: number, R: number): boolean { return cannotClip(this.cell, this.ctx.metric, this.sx, this.sy, ux, uy, R); }
+  clip(u: number, ux: number, uy: number): number {
+    return clipCell(this.cell, bisector(this.ctx.metric, this.sx, this.sy, ux, uy), u, this.ctx) ? 1 : 0;
+  }
+}
+
 
 /**
  * A floating-point test that is only ever answered true when site u
@@ -157,15 +204,17 @@ function dist2(xy: Float64Array, a: number, b: number): number {
   return dx * dx + dy * dy;
 }
 
-/** Largest metric distance from the site to a corner of its cell, rounded up a little (corners carry an error bound). */
+/** Largest metric distance from the site to a corner of its cell, rounded up a little (corners carry an error bound); sets extent[0]. */
 function farthest(cell: Cell, sx: number, sy: number, metric: ExactMetric): number {
-  let r = 0;
+  let r = 0, reach = 0;
   for (const p of cell.pts) {
     const e = Number.isFinite(p.err) ? 2 * p.err : 0;
     const dx = Math.abs(p.x - sx) + e, dy = Math.abs(p.y - sy) + e;
     const d = metric === 'L1' ? dx + dy : Math.max(dx, dy);
     if (d > r) r = d;
+    reach = Math.max(reach, ballReach(dx, dy, d, metric === 'L1'));
   }
+  extent[0] = reach;
   return r;
 }
 
@@ -270,8 +319,8 @@ function positiveArea(pts: Pt[]): boolean {
 }
 
 /** Two sites too close for any cell boundary between them to be placed in double precision (as for the Euclidean diagram). */
-function checkSpacing(tri: Triangulation, region: Float64Array): void {
-  const xy = tri.siteXY, edges = tri.edges();
+function checkSpacing(tri: Triangulation, region: Float64Array, edges: Int32Array): void {
+  const xy = tri.siteXY;
   let magnitude = 0;
   for (let i = 0; i < 2 * tri.siteCount; i++) magnitude = Math.max(magnitude, Math.abs(xy[i]));
   for (let i = 0; i < region.length; i++) magnitude = Math.max(magnitude, Math.abs(region[i]));

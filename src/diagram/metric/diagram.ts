@@ -3,7 +3,6 @@ import { ClippedCells } from '../cells.js';
 import type { ExactMetric } from './bisector.js';
 import { metricCells } from './build.js';
 import { MetricLocator } from './locate.js';
-import { hilbertSort } from '../../core/hilbert.js';
 
 /**
  * The Voronoi diagram of sites under L1 (city block) or L-infinity
@@ -31,13 +30,6 @@ export class MetricVoronoiDiagram extends ClippedCells {
   /** The site nearest to (x, y) in the metric, ties by the rule above. */
   nearest(x: number, y: number): number { return this.queries().nearest(x, y); }
 
-  /** nearest() for many points (interleaved x, y), answered along a space-filling curve. */
-  nearestMany(xy: Float64Array | ArrayLike<number>): Int32Array {
-    const m = xy.length >> 1, out = new Int32Array(m);
-    const pts = Float64Array.from(xy as ArrayLike<number>);
-    for (const i of hilbertSort(pts).ids) out[i] = this.nearest(pts[2 * i], pts[2 * i + 1]);
-    return out;
-  }
 
   /** The k nearest sites in the metric, sorted by the rule above. */
   kNearest(x: number, y: number, k: number): Int32Array { return this.queries().kNearest(x, y, k); }

@@ -13,11 +13,11 @@ import { dyAdd, dyInt, dyMul, dyNeg, dyRatio, dySign, dySub, dyadic, dyScale, ty
  * terms the running bounds drop are covered.
  */
 
-const U = 2 ** -53;
+export const U = 2 ** -53;
 /** Relative padding of every derived error bound (covers the dropped second-order terms). */
-const SLACK = 1 + 2 ** -20;
+export const SLACK = 1 + 2 ** -20;
 /** Absolute padding: far above any accumulated underflow error, far below any coordinate ambit accepts squared. */
-const TINY = 2 ** -900;
+export const TINY = 2 ** -900;
 /**
  * A computed point whose error bound exceeds this fraction of the size of
  * its coordinates and of its lines' constants is placed exactly instead:
@@ -141,7 +141,7 @@ export function euclidLine(lx: number, ly: number, tx: number, ty: number): Line
     Math.max(Math.abs(lx), Math.abs(ly), Math.abs(tx), Math.abs(ty)), EUCLID, [lx, ly, tx, ty], 1, 1);
 }
 
-const CORNER = 0, MEET = 1, MID = 2;
+const CORNER = 0, MEET_KIND = 1, MID = 2;
 
 /** A point: float position, a bound on the error of both coordinates, and the data of an exact homogeneous definition. */
 export class Pt {
@@ -149,7 +149,7 @@ export class Pt {
   constructor(
     readonly x: number, readonly y: number, readonly err: number,
     private readonly kind: number,
-    /** MEET: the two lines; MID: the two points; CORNER: unused. */
+    /** MEET_KIND: the two lines; MID: the two points; CORNER: unused. */
     private readonly r1: Line | Pt | null, private readonly r2: Line | Pt | null,
     exact: Exact3 | null = null,
   ) {
@@ -158,14 +158,14 @@ export class Pt {
 
   /** Whether the point is by construction on line l (true is exact; false means "not known"). */
   builtOn(l: Line): boolean {
-    return this.kind === MEET && ((this.r1 as Line).sameAs(l) || (this.r2 as Line).sameAs(l));
+    return this.kind === MEET_KIND && ((this.r1 as Line).sameAs(l) || (this.r2 as Line).sameAs(l));
   }
 
   exact(): Exact3 {
     if (this.exactValue) return this.exactValue;
     let r: Exact3;
     if (this.kind === CORNER) r = [dyadic(this.x), dyadic(this.y), dyInt(1)];
-    else if (this.kind === MEET) r = meetExact(this.r1 as Line, this.r2 as Line);
+    else if (this.kind === MEET_KIND) r = meetExact(this.r1 as Line, this.r2 as Line);
     else {
       const [X1, Y1, W1] = (this.r1 as Pt).exact(), [X2, Y2, W2] = (this.r2 as Pt).exact();
       r = [dyAdd(dyMul(X1, W2), dyMul(X2, W1)), dyAdd(dyMul(Y1, W2), dyMul(Y2, W1)), dyScale(dyMul(W1, W2), 1)];
@@ -183,10 +183,13 @@ function meetExact(l1: Line, l2: Line): Exact3 {
   return [dySub(dyMul(B1, C2), dyMul(B2, C1)), dySub(dyMul(C1, A2), dyMul(C2, A1)), dySub(dyMul(A1, B2), dyMul(A2, B1))];
 }
 
-/** The intersection of two lines that are not parallel (exactly). */
-export function meet(l1: Line, l2: Line): Pt {
-  // Running error bounds of the products: |a| eb + |b| ea + ea eb + u |ab|, for each of the six.
-  const { a: a1, b: b1, c: c1, ea: ea1, eb: eb1, ec: ec1 } = l1, { a: a2, b: b2, c: c2, ea: ea2, eb: eb2, ec: ec2 } = l2;
+/**
+ * The float part of meet(): x, y and a bound on their error into out[0..2]
+ * (an infinite bound when the lines are too close to parallel to say).
+ * Running error bounds of the products: |a| eb + |b| ea + ea eb + u |ab|, for each of the six.
+ */
+export function meetFloat(a1: number, b1: number, c1: number, ea1: number, eb1: number, ec1: number,
+  a2: number, b2: number, c2: number, ea2: number, eb2: number, ec2: number, out: Float64Array): void {
   const p1 = b1 * c2, p2 = b2 * c1, p3 = c1 * a2, p4 = c2 * a1, p5 = a1 * b2, p6 = a2 * b1;
   const X = p1 - p2, Y = p3 - p4, W = p5 - p6;
   const eX = Math.abs(b1) * ec2 + Math.abs(c2) * eb1 + eb1 * ec2 + U * Math.abs(p1) +
@@ -198,16 +201,30 @@ export function meet(l1: Line, l2: Line): Pt {
   const x = X / W, y = Y / W;
   const den = Math.abs(W) - eW;
   const big = Math.max(Math.abs(x), Math.abs(y));
-  const err = den > 0 ? (Math.max(eX + Math.abs(x) * eW, eY + Math.abs(y) * eW) / den + U * big) * SLACK + TINY : Infinity;
+  out[0] = x; out[1] = y;
+  out[2] = den > 0 ? (Math.max(eX + Math.abs(x) * eW, eY + Math.abs(y) * eW) / den + U * big) * SLACK + TINY : Infinity;
+}
+
+/** Whether a point computed by meetFloat at (x, y) with bound err is too poorly placed to keep (see meet()). */
+export function needsRefine(x: number, y: number, err: number, size1: number, size2: number): boolean {
+  return !(err <= REFINE * Math.max(Math.abs(x), Math.abs(y), size1, size2) + TINY);
+}
+
+const MEET = new Float64Array(3);
+
+/** The intersection of two lines that are not parallel (exactly). */
+export function meet(l1: Line, l2: Line): Pt {
+  meetFloat(l1.a, l1.b, l1.c, l1.ea, l1.eb, l1.ec, l2.a, l2.b, l2.c, l2.ea, l2.eb, l2.ec, MEET);
+  const x = MEET[0], y = MEET[1], err = MEET[2];
   // Cancellation (nearly parallel lines, or constants far larger than the
   // point) can leave the float position far off: then it is placed from the
   // exact value, within about an ulp, so the mesh gets it where it belongs.
-  if (!(err <= REFINE * Math.max(big, l1.size, l2.size) + TINY)) {
+  if (needsRefine(x, y, err, l1.size, l2.size)) {
     const e = meetExact(l1, l2);
     const rx = dyRatio(e[0], e[2]), ry = dyRatio(e[1], e[2]);
-    return new Pt(rx, ry, 2 * U * Math.max(Math.abs(rx), Math.abs(ry)) + TINY, MEET, l1, l2, e);
+    return new Pt(rx, ry, 2 * U * Math.max(Math.abs(rx), Math.abs(ry)) + TINY, MEET_KIND, l1, l2, e);
   }
-  return new Pt(x, y, err, MEET, l1, l2);
+  return new Pt(x, y, err, MEET_KIND, l1, l2);
 }
 
 /** The midpoint of two points. */

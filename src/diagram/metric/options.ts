@@ -4,8 +4,8 @@ import type { ExactMetric } from './bisector.js';
 /** A distance for the diagram: 'L2' (Euclidean, the default), 'L1', 'Linf' (also 'L∞'), or the exponent p >= 1 of a Minkowski distance. */
 export type Metric = 'L2' | 'L1' | 'Linf' | 'L∞' | number;
 
-/** The metric an options object asks for, validated: p = 1, 2 and Infinity route to the exact engines. */
-export function readMetric(metric: unknown, tolerance: unknown): 'L2' | ExactMetric {
+/** The metric an options object asks for, validated: p = 1, 2 and Infinity route to the exact engines, any other p >= 1 is returned as the number. */
+export function readMetric(metric: unknown, tolerance: unknown): 'L2' | ExactMetric | number {
   if (tolerance !== undefined && (typeof tolerance !== 'number' || !(tolerance > 0) || !Number.isFinite(tolerance))) {
     throw new InputError('bad-option', `tolerance must be a positive finite number, got ${String(tolerance)}`, -1, 'tolerance');
   }
@@ -15,5 +15,5 @@ export function readMetric(metric: unknown, tolerance: unknown): 'L2' | ExactMet
   if (typeof metric !== 'number' || Number.isNaN(metric) || metric < 1) {
     throw new InputError('bad-option', `metric must be 'L2', 'L1', 'Linf' or a number p >= 1, got ${typeof metric === 'string' ? `'${metric}'` : String(metric)}`, -1, 'metric');
   }
-  throw new InputError('unsupported-option', `metric p = ${metric}: Minkowski distances other than p = 1, 2 and Infinity are not implemented yet`, -1, 'metric');
+  return metric;
 }

@@ -1,0 +1,88 @@
+import { AmbitError } from '../../core/errors.js';
+import { HalfEdgeMesh } from '../../mesh/mesh.js';
+import type { MeshParts } from './parts.js';
+import { OUTER } from './ring.js';
+
+/**
+ * Links the pieces into one half-edge mesh of kind 'voronoi'. Around every
+ * point, each face appears on the left of at most one outgoing half-edge
+ * (a Voronoi vertex sees each of its cells once; a bend, a crossing, a
+ * region corner sees two or three different faces), so the half-edge after
+ * e is the one leaving e's end with e's face on its left; no angles are
+ * compared. Where a face comes twice (a cell pinched at a point), the
+ * first of them clockwise from e's twin is taken, as in any planar map.
+ *
+ * Faces are renumbered from ranks to input sites (`siteOf`); the outer
+ * face, OUTER while building, becomes n, the site count. A face whose edges form more than one
+ * cycle (a cell meeting the region in separate pieces) is refused.
+ */
+export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOutside: (rank: number) => boolean): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
+  const H = parts.origin.count, V = parts.points.count;
+  const origin = parts.origin.a.slice(0, H), rankFace = parts.face.view();
+  const xy = parts.points.xy.slice(0, 2 * V);
+  const off = new Int32Array(V + 1);
+  for (let e = 0; e < H; e++) off[origin[e] + 1]++;
+  for (let v = 0; v < V; v++) off[v + 1] += off[v];
+  const fill = off.slice(0, V), out = new Int32Array(H);
+  for (let e = 0; e < H; e++) out[fill[origin[e]]++] = e;
+  const next = new Int32Array(H), twin = new Int32Array(H);
+  for (let e = 0; e < H; e++) {
+    const t = e ^ 1, v = origin[t], f = rankFace[e];
+    twin[e] = t;
+    let found = -1, count = 0;
+    for (let k = off[v]; k < off[v + 1]; k++) {
+      const g = out[k];
+      if (g !== t && rankFace[g] === f) { found = g; count++; }
+    }
+    if (count > 1) found = clockwiseFrom(xy, origin, out, off, rankFace, t, f);
+    if (found < 0) {
+      const around: string[] = [];
+      for (let k = off[v]; k < off[v + 1]; k++) around.push(`${out[k]}:${rankFace[out[k]]}/${rankFace[out[k] ^ 1]}`);
+      throw new AmbitError('internal', `minkowski diagram: half-edge ${e} of face ${f} has no successor at point ${v} (${xy[2 * v]}, ${xy[2 * v + 1]}); leaving it: ${around.join(' ')}`);
+    }
+    next[e] = found;
+  }
+  const faceEdge = new Int32Array(n + 1).fill(-1), faceSite = new Int32Array(n + 1), face = new Int32Array(H);
+  for (let s = 0; s < n; s++) faceSite[s] = s;
+  faceSite[n] = -1;
+  for (let e = 0; e < H; e++) {
+    const f = rankFace[e];
+    face[e] = f === OUTER ? n : siteOf[f];
+    if (face[e] < 0) throw new AmbitError('internal', `minkowski diagram: a guard site's cell reached the region`);
+  }
+  // One cycle per face.
+  const seen = new Uint8Array(H);
+  for (let e = 0; e < H; e++) {
+    if (seen[e]) continue;
+    const f = face[e];
+    if (faceEdge[f] >= 0) {
+      const rank = rankFace[e];
+      throw new AmbitError('unsupported-geometry', isOutside(rank)
+        ? `the cell of site ${f}, which lies outside the clip region, meets the region in separate pieces; this is not supported yet`
+        : `the cell of site ${f} came out in separate pieces (a rounding problem in the Minkowski diagram)`);
+    }
+    faceEdge[f] = e;
+    let x = e;
+    do { seen[x] = 1; x = next[x]; } while (x !== e);
+  }
+  const faceOfSite = new Int32Array(n);
+  for (let s = 0; s < n; s++) faceOfSite[s] = faceEdge[s] >= 0 ? s : -1;
+  const mesh = new HalfEdgeMesh({ kind: 'voronoi', vertexXY: xy, origin, twin, next, face, faceEdge, faceSite, outerFace: n });
+  return { mesh, faceOfSite };
+}
+
+/** Among the half-edges leaving e's end with face f on the left, the first clockwise from e's twin t. */
+function clockwiseFrom(xy: Float64Array, origin: Int32Array, out: Int32Array, off: Int32Array, face: Int32Array, t: number, f: number): number {
+  const v = origin[t], x = xy[2 * v], y = xy[2 * v + 1];
+  const angle = (g: number): number => { const w = origin[g ^ 1]; return Math.atan2(xy[2 * w + 1] - y, xy[2 * w] - x); };
+  const base = angle(t);
+  let best = -1, bestTurn = Infinity;
+  for (let k = off[v]; k < off[v + 1]; k++) {
+    const g = out[k];
+    if (g === t || face[g] !== f) continue;
+    let turn = base - angle(g);
+    while (turn <= 0) turn += 2 * Math.PI;
+    if (turn < bestTurn) { bestTurn = turn; best = g; }
+  }
+  return best;
+}

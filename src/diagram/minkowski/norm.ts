@@ -1,0 +1,63 @@
+/**
+ * The Minkowski norm ||v||_p = (|vx|^p + |vy|^p)^(1/p) for 1 < p < ∞, and
+ * its gradient, without overflow for any p: both are computed from the
+ * ratio r = min/max of the two magnitudes, so no power of a large number is
+ * ever formed. Results go to module scratch (no allocation in the hot
+ * loops of the bisector and centre solvers).
+ */
+export const lp = { value: 0, gx: 0, gy: 0 };
+
+/** ||(vx, vy)||_p into lp.value and its gradient into lp.gx, lp.gy. */
+export function lpNorm(p: number, vx: number, vy: number): void {
+  const ax = Math.abs(vx), ay = Math.abs(vy);
+  const big = ax >= ay ? ax : ay;
+  if (big === 0) { lp.value = 0; lp.gx = 0; lp.gy = 0; return; }
+  const r = (ax >= ay ? ay : ax) / big;
+  const rp = r === 0 ? 0 : Math.pow(r, p);
+  const sum = 1 + rp;
+  const root = Math.pow(sum, 1 / p);
+  lp.value = big * root;
+  // d||v||/dv_k = sign(v_k) (|v_k| / ||v||)^(p-1); for the larger component (1/root)^(p-1) = root / sum.
+  const gBig = root / sum, gSmall = r === 0 ? 0 : (rp / r) * gBig;
+  const gx = ax >= ay ? gBig : gSmall, gy = ax >= ay ? gSmall : gBig;
+  lp.gx = vx < 0 ? -gx : gx;
+  lp.gy = vy < 0 ? -gy : gy;
+}
+
+/** ||(vx, vy)||_p alone. */
+export function lpLength(p: number, vx: number, vy: number): number {
+  const ax = Math.abs(vx), ay = Math.abs(vy);
+  const big = ax >= ay ? ax : ay;
+  if (big === 0) return 0;
+  const r = (ax >= ay ? ay : ax) / big;
+  return r === 0 ? big : big * Math.pow(1 + Math.pow(r, p), 1 / p);
+}
+
+/**
+ * The largest Euclidean length of a vector of p-norm 1: 1 for p <= 2 (the
+ * p-ball lies inside the Euclidean disk), 2^(1/2 - 1/p) for p > 2 (reached
+ * on the diagonals). Hölder's inequality; from memory.
+ */
+export function euclideanReach(p: number): number {
+  return p <= 2 ? 1 : Math.pow(2, 0.5 - 1 / p);
+}
+
+/**
+ * x^p for x >= 0, by multiplication when p is a small integer (exact to
+ * within the same rounding, several times faster than Math.pow).
+ */
+export function powP(x: number, p: number, integer: number): number {
+  switch (integer) {
+    case 3: return x * x * x;
+    case 4: { const y = x * x; return y * y; }
+    case 5: { const y = x * x; return y * y * x; }
+    case 6: { const y = x * x * x; return y * y; }
+    case 8: { const y = x * x; const z = y * y; return z * z; }
+    default: return Math.pow(x, p);
+  }
+}
+
+/** The integer powP multiplies out for p, or 0. */
+export function smallInteger(p: number): number {
+  return p === 3 || p === 4 || p === 5 || p === 6 || p === 8 ? p : 0;
+}
