@@ -13,7 +13,8 @@ const CLI = fileURLToPath(new URL('../../dist/cli.js', import.meta.url));
 let dir = '';
 
 function ambit(...args: string[]): { code: number | null; out: string; err: string } {
-  const r = spawnSync(process.execPath, [CLI, ...args], { cwd: dir, encoding: 'utf8', env: { ...process.env, CI: '' } });
+  // A time limit turns a hung child into a failed test instead of a stalled run.
+  const r = spawnSync(process.execPath, [CLI, ...args], { cwd: dir, encoding: 'utf8', env: { ...process.env, CI: '' }, timeout: 120_000 });
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
 
