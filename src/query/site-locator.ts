@@ -3,7 +3,7 @@ import { compareDistance, compareDistanceExact, squaredDistance } from '../core/
 import { comparePowerDistance, comparePowerDistanceExact } from '../core/power.js';
 import { InputError } from '../core/errors.js';
 import { hilbertSort } from '../core/hilbert.js';
-import { MAX_COORDINATE } from '../core/limits.js';
+import { checkK, checkQuery } from './query-input.js';
 import type { Triangulation } from '../triangulate/triangulation.js';
 import { boundingBox } from '../core/bounds.js';
 
@@ -161,9 +161,7 @@ export class SiteLocator {
     checkQuery(x, -1, 'x');
     checkQuery(y, -1, 'y');
     const n = this.siteCount;
-    if (typeof k !== 'number' || !Number.isInteger(k) || k < 1 || k > n) {
-      throw new InputError('bad-k', `k = ${String(k)} must be an integer in 1..${n}`, -1, 'k');
-    }
+    checkK(k, n);
     const first = this.walk(this.startFor(x, y), x, y);
     this.last = first;
     const site = this.site;
@@ -382,20 +380,4 @@ export class SiteLocator {
     }
     return ++this.stamp;
   }
-}
-
-/** A query coordinate: a finite number of magnitude at most 2^120 (tiny values are fine). */
-function checkQuery(v: unknown, index: number, field: 'x' | 'y'): number {
-  // A single query (index -1) has no place in a list to name.
-  const which = index < 0 ? 'query point' : `query ${index}`;
-  if (typeof v !== 'number') {
-    throw new InputError('not-a-number', `${which}: ${field} is ${v === null ? 'null' : typeof v}, expected a number`, index, field);
-  }
-  if (!Number.isFinite(v)) {
-    throw new InputError('not-finite', `${which}: ${field} is ${v}, coordinates must be finite`, index, field);
-  }
-  if (Math.abs(v) > MAX_COORDINATE) {
-    throw new InputError('out-of-range', `${which}: ${field} = ${v} is beyond 2^120 in magnitude`, index, field);
-  }
-  return v;
 }

@@ -2,7 +2,8 @@ import type { Triangulation } from '../../triangulate/triangulation.js';
 import { ClippedCells } from '../cells.js';
 import type { ExactMetric } from './bisector.js';
 import { metricCells } from './build.js';
-import { MetricLocator } from './locate.js';
+import { BestFirstLocator } from '../../query/best-first.js';
+import { metricRanking } from './locate.js';
 
 /**
  * The Voronoi diagram of sites under L1 (city block) or L-infinity
@@ -15,7 +16,7 @@ import { MetricLocator } from './locate.js';
  */
 export class MetricVoronoiDiagram extends ClippedCells {
   readonly metric: ExactMetric;
-  private locator: MetricLocator | null = null;
+  private locator: BestFirstLocator | null = null;
 
   /** @internal Use {@link voronoi} with a metric option. */
   constructor(tri: Triangulation, region: Float64Array, metric: ExactMetric) {
@@ -23,8 +24,8 @@ export class MetricVoronoiDiagram extends ClippedCells {
     this.metric = metric;
   }
 
-  private queries(): MetricLocator {
-    return (this.locator ??= new MetricLocator(this.triangulation, this.metric));
+  private queries(): BestFirstLocator {
+    return (this.locator ??= new BestFirstLocator(this.triangulation, metricRanking(this.metric)));
   }
 
   /** The site nearest to (x, y) in the metric, ties by the rule above. */

@@ -2,7 +2,8 @@ import type { Triangulation } from '../../triangulate/triangulation.js';
 import { ClippedCells } from '../cells.js';
 import { ConvexRegion } from '../clip.js';
 import { minkowskiCells } from './build.js';
-import { MinkowskiLocator } from './locate.js';
+import { BestFirstLocator } from '../../query/best-first.js';
+import { lpRanking } from './locate.js';
 
 /**
  * The default edge tolerance, relative to the mean spacing of the sites,
@@ -34,7 +35,7 @@ export class MinkowskiVoronoiDiagram extends ClippedCells {
   readonly metric: number;
   /** The largest Euclidean distance, by construction, of an edge's polyline from the true bisector. */
   readonly tolerance: number;
-  private locator: MinkowskiLocator | null = null;
+  private locator: BestFirstLocator | null = null;
 
   /** @internal Use {@link voronoi} with a numeric metric. */
   constructor(tri: Triangulation, region: Float64Array, p: number, tolerance?: number) {
@@ -44,8 +45,8 @@ export class MinkowskiVoronoiDiagram extends ClippedCells {
     this.tolerance = tol;
   }
 
-  private queries(): MinkowskiLocator {
-    return (this.locator ??= new MinkowskiLocator(this.triangulation, this.metric));
+  private queries(): BestFirstLocator {
+    return (this.locator ??= new BestFirstLocator(this.triangulation, lpRanking(this.metric)));
   }
 
   /** The site nearest to (x, y) in the p-norm, ties by the rule above. */
