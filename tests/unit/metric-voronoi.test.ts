@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkMesh, InputError, MetricVoronoiDiagram, voronoi, VoronoiDiagram } from '../../src/index.js';
+import { AmbitError, checkMesh, InputError, MetricVoronoiDiagram, voronoi, VoronoiDiagram } from '../../src/index.js';
 
 /** The cell polygon as [x, y] pairs. */
 const cell = (d: { cellPolygon(s: number): Float64Array }, s: number): number[][] => {
@@ -78,6 +78,34 @@ describe('worked examples (bisectors worked out by hand)', () => {
     const far = metricDiagram([0, 0, 30, 0], 'L1', { minX: -1, minY: -1, maxX: 2, maxY: 1 });
     expect(Array.from(far.sitesWithoutCell)).toEqual([1]);
     expect(far.cellPolygon(1).length).toBe(0);
+  });
+});
+
+describe('convex polygon clips, worked by hand', () => {
+  it('L-infinity: a bisector through a region corner bulges past the side whose ends both lie on it', () => {
+    // Sites s = (0.5, 0.75), u = (1, 0.5): the boundary is x = 0.75 for 0.5 <= y <= 0.75, then y = x up to the
+    // corner (1, 1), and y = x - 0.25 below. The region side from (0.5, 0) to (1, 1) meets it at (0.75, 0.5) and
+    // (1, 1) only, so u keeps the triangle (0.75, 0.5), (1, 1), (0.75, 0.75) of area 1/32 although no corner of
+    // s's first cell lies strictly on u's side.
+    const d = voronoi([0.5, 0.75, 1, 0.5, 0.5, 0.25], { metric: 'Linf', clip: [1, 1, 0.5, 1, 0, 0.5, 0.5, 0] });
+    expect(checkMesh(d.mesh).problems).toEqual([]);
+    expect(cell(d, 1)).toEqual([[0.75, 0.5], [1, 1], [0.75, 0.75]]);
+    expect(d.cellAreas()[1]).toBe(1 / 32);
+    expect(d.totalArea()).toBe(0.5);
+  });
+
+  it('a site outside the region whose cell meets it in two pieces is refused with a typed error, whichever corner its cell starts at', () => {
+    // Site (1, 1) lies below the side from (-0.5, 2.75) to (4.5, 1.25). Under L-infinity its boundary with
+    // (1.5, 3.5) is y = 2.25 for 0.25 <= x <= 2.25 and y = 2.5 - x further left, which dips below that side
+    // between x = -1/7 and x = 7/6; under L1 it is y = 2.5 for x <= 1, y = 3.5 - x up to x = 1.5, then y = 2,
+    // which dips below that side between x = 9/7 and x = 2. Either way the cell reaches in twice.
+    const clip = [1.75, 4.5, 1.25, 4.5, 1, 4.5, 0, 3.75, -0.5, 2.75, 4.5, 1.25];
+    for (const metric of ['L1', 'Linf'] as const) {
+      let caught: unknown;
+      try { voronoi([1, 1, 1.5, 3.5, 3.25, 3.75], { metric, clip }); } catch (err) { caught = err; }
+      expect(caught).toBeInstanceOf(AmbitError);
+      expect((caught as AmbitError).code).toBe('unsupported-geometry');
+    }
   });
 });
 

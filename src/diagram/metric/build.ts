@@ -260,21 +260,18 @@ function clipToRegion(cell: Cell, sides: Line[], site: number): Cell | null {
     const sv = pts.map((p) => sideOf(p, L));
     if (sv.every((v) => v <= 0)) return null;
     const nPts: Pt[] = [], nLines: Line[] = [], nLabels: number[] = [];
-    const cuts: [number, number][] = [];
-    let open = -1;
     for (let i = 0; i < n; i++) {
       const k = i + 1 === n ? 0 : i + 1;
       const a = sv[i], b = sv[k];
       if (a > 0 || (a === 0 && b > 0)) { nPts.push(pts[i]); nLines.push(lines[i]); nLabels.push(labels[i]); }
-      else if (a === 0) { nPts.push(pts[i]); nLines.push(L); nLabels.push(-1 - j); open = nPts.length - 1; }
-      if (a > 0 && b < 0) { nPts.push(meet(lines[i], L)); nLines.push(L); nLabels.push(-1 - j); open = nPts.length - 1; }
+      else if (a === 0) { nPts.push(pts[i]); nLines.push(L); nLabels.push(-1 - j); }
+      if (a > 0 && b < 0) { nPts.push(meet(lines[i], L)); nLines.push(L); nLabels.push(-1 - j); }
       if (a < 0 && b > 0) { nPts.push(meet(lines[i], L)); nLines.push(lines[i]); nLabels.push(labels[i]); }
-      if (open >= 0 && nLabels[nLabels.length - 1] !== -1 - j) { cuts.push([open, nPts.length - 1]); open = -1; }
     }
     if (nPts.length < 3 || !positiveArea(nPts)) return null;
     // Two cuts along the same side that overlap would be a zero-width bridge between separate pieces.
     const along = (p: Pt): number => p.y * L.a - p.x * L.b;
-    const spans = cuts.map(([a, b]) => [along(nPts[a]), along(nPts[b])].sort((u, v) => u - v));
+    const spans = cutRuns(nLabels, -1 - j).map(([a, b]) => [along(nPts[a]), along(nPts[b])].sort((u, v) => u - v));
     for (let a = 0; a < spans.length; a++) {
       for (let b = a + 1; b < spans.length; b++) {
         if (spans[a][0] < spans[b][1] && spans[b][0] < spans[a][1]) {
@@ -286,6 +283,23 @@ function clipToRegion(cell: Cell, sides: Line[], site: number): Cell | null {
   }
   if (cell.labels.includes(BOX_LABEL)) throw new Error('metric cells: a box side survived clipping to the region');
   return cell;
+}
+
+/**
+ * The runs of consecutive edges labelled `label` in a closed polygon, as
+ * [first corner, corner after the last edge]. A run may wrap past the last
+ * corner (the cut a side made can straddle where the corner list starts),
+ * so runs are found cyclically.
+ */
+export function cutRuns(labels: readonly number[], label: number): [number, number][] {
+  const m = labels.length, runs: [number, number][] = [];
+  for (let i = 0; i < m; i++) {
+    if (labels[i] !== label || labels[(i + m - 1) % m] === label) continue;
+    let last = i;
+    while (labels[(last + 1) % m] === label && (last + 1) % m !== i) last = (last + 1) % m;
+    runs.push([i, (last + 1) % m]);
+  }
+  return runs;
 }
 
 /**

@@ -98,7 +98,9 @@ export function clipCell(cell: Cell, bis: Bisector, t: number, ctx: ClipContext)
       pieces.push({ start, pos, status, label: labels[i], line: lines[i], edge: i });
     }
   }
-  if (!changed && out === 0 && !pieces.some((p) => p.status === 0 && p.label >= 0)) return false;
+  // Unchanged only if nothing lies beyond: an edge with both ends on a bent bisector can still bulge past it
+  // (the bend inside the cell), which only its midpoint's status shows.
+  if (!changed && !pieces.some((p) => p.status > 0 || (p.status === 0 && p.label >= 0))) return false;
   const relabelled = relabelShared(pieces, t, ctx);
   const N = pieces.length;
   let first = -1;
