@@ -1,3 +1,5 @@
+import { orient } from '../core/predicates.js';
+
 /** How many units in the last place of the region's coordinates count as "on" a side. */
 export const SNAP_ULPS = 4;
 
@@ -17,8 +19,8 @@ export class ConvexRegion {
   /** The larger side of the bounding box: the unit of every tolerance. */
   readonly size: number;
 
-  constructor(xy: Float64Array) {
-    this.xy = xy;
+  constructor(polygon: Float64Array) {
+    const xy = (this.xy = withoutStraightCorners(polygon));
     const m = (this.count = xy.length >> 1);
     let sx = 0, sy = 0;
     let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
@@ -117,4 +119,22 @@ export class ConvexRegion {
     this.tIn = tIn; this.tOut = tOut; this.sideIn = sideIn; this.sideOut = sideOut;
     return true;
   }
+}
+
+/**
+ * The polygon without its vertices where the boundary runs straight on
+ * (exactly collinear with both neighbours). Such a vertex would split one
+ * side into two on the same line, and a crossing of that line near it could
+ * be filed under either half, out of order along the boundary.
+ */
+function withoutStraightCorners(xy: Float64Array): Float64Array {
+  const m = xy.length >> 1, keep: number[] = [];
+  for (let i = 0; i < m; i++) {
+    const a = i === 0 ? m - 1 : i - 1, c = i + 1 === m ? 0 : i + 1;
+    if (orient(xy[2 * a], xy[2 * a + 1], xy[2 * i], xy[2 * i + 1], xy[2 * c], xy[2 * c + 1]) !== 0) keep.push(i);
+  }
+  if (keep.length === m) return xy;
+  const out = new Float64Array(2 * keep.length);
+  keep.forEach((i, k) => { out[2 * k] = xy[2 * i]; out[2 * k + 1] = xy[2 * i + 1]; });
+  return out;
 }

@@ -1,7 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { AmbitError, checkMesh, InputError, voronoi, type ClipRegion, type MetricVoronoiDiagram } from '../../src/index.js';
-import { monotoneChainHull } from '../support/hull.js';
+import { checkMesh, InputError, voronoi, type ClipRegion, type MetricVoronoiDiagram } from '../../src/index.js';
 import { allGenerators, flatten, permuteBy, type NamedGenerator, type Pt } from '../support/generators.js';
 import { polygonArea, ulp } from '../support/voronoi-brute.js';
 import { locateInPolygon, ownerByRule, type ExactMetricName } from '../support/metric-brute.js';
@@ -212,39 +211,3 @@ describe('custom clip rectangles (sites outside the region keep the part of thei
   }
 });
 
-describe('convex polygon clips on a quarter grid (region corners on bisector bends, sites outside)', () => {
-  // Sites and polygon corners on one coarse grid, so that corners fall exactly on bisectors and their bends,
-  // where a clip must see a bisector bulge past an edge whose ends both lie on it.
-  const quarter = fc.tuple(fc.integer({ min: 0, max: 16 }), fc.integer({ min: 0, max: 16 })).map(([x, y]): Pt => [x / 4, y / 4]);
-  it("valid mesh, areas sum to the region's, probes owned by the brute-force nearest", () => {
-    fc.assert(
-      fc.property(fc.array(quarter, { minLength: 2, maxLength: 9 }), fc.array(quarter, { minLength: 3, maxLength: 8 }),
-        fc.constantFrom(...METRICS), probeArb, (sites, corners, metric, probes) => {
-          const hull = monotoneChainHull(flatten(corners));
-          const clip = hull.flat(), points = flatten(sites);
-          fc.pre(hull.length >= 3 && polygonArea(clip) > 0);
-          // A documented limit: the cell of a site outside the region may meet it in separate pieces.
-          const d = validOrRefused(points, metric, clip, (err) => err instanceof AmbitError && err.code === 'unsupported-geometry');
-          if (d === null) return;
-          const area = polygonArea(clip);
-          expect(Math.abs(d.totalArea() - area)).toBeLessThanOrEqual(1e-12 * area);
-          const xy = d.triangulation.siteXY;
-          let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-          for (let i = 0; i < clip.length; i += 2) {
-            minX = Math.min(minX, clip[i]); maxX = Math.max(maxX, clip[i]);
-            minY = Math.min(minY, clip[i + 1]); maxY = Math.max(maxY, clip[i + 1]);
-          }
-          for (const [u, v] of probes) {
-            const qx = minX + u * (maxX - minX), qy = minY + v * (maxY - minY);
-            // Strictly inside the region: a probe on its boundary may belong to a cell that has no area there.
-            const where = locateInPolygon(clip, qx, qy);
-            if (!where.inside || where.boundaryDistance === 0) continue;
-            const owner = ownerByRule(metric, xy, qx, qy);
-            const at = locateInPolygon(d.cellPolygon(owner), qx, qy);
-            expect(at.inside || at.boundaryDistance <= 1e-12 * (maxX - minX)).toBe(true);
-          }
-        }),
-      { numRuns: NUM_RUNS },
-    );
-  });
-});

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { readClipRegion } from '../../src/diagram/region.js';
-import { checkMesh, InputError, orient, voronoi } from '../../src/index.js';
+import { checkMesh, InputError, orient, voronoi, type Metric } from '../../src/index.js';
 import { monotoneChainHull } from '../support/hull.js';
 import { polygonArea } from '../support/voronoi-brute.js';
 
@@ -66,6 +66,27 @@ describe('readClipRegion', () => {
     const d = voronoi([[0.5, 0.5], [1.5, 1.5]], { clip: poly });
     expect(checkMesh(d.mesh).problems).toEqual([]);
     expect(d.totalArea()).toBeCloseTo(4, 12);
+  });
+
+  it('cells crossing a straight side next to its middle vertex (found by a random search) tile the region, in every metric', () => {
+    // The vertices (0.5, -0.25), (1.25, -0.25), (1.75, -0.25) lie on one line; so do (2.75, -0.5), (7, -0.5),
+    // (7.25, -0.5) in the second case. A crossing near the middle vertex was once filed under the wrong half
+    // of the side, out of order along the boundary, and the mesh could not be linked.
+    // Under L1 and Linf the second case is refused: site (0.5, 0) lies outside and its cell reaches in twice.
+    const cases: [[number, number][], [number, number][], Metric[]][] = [
+      [[[2, 1], [0, 2], [1, 1.25], [0.25, 1], [1.25, 1.25], [1.75, 1.5], [0.75, 1.5], [0.75, 1.25], [0.25, 1]],
+        [[1.25, 2.25], [0.25, 2.25], [-0.25, 0.5], [0, 0], [0.5, -0.25], [1.25, -0.25], [1.75, -0.25]], ['L2', 'L1', 'Linf', 1.5]],
+      [[[5.25, 6.75], [4.75, 2], [0.25, 4.25], [9.5, 3.75], [7.5, 1.5], [4.25, 2.75], [0.5, 0]],
+        [[10, 8.25], [9, 9.5], [1, 9.25], [2.75, -0.5], [7, -0.5], [7.25, -0.5]], ['L2', 1.5, 3]],
+    ];
+    for (const [sites, clip, metrics] of cases) {
+      const area = Math.abs(clip.reduce((s, [x, y], i) => s + x * clip[(i + 1) % clip.length][1] - clip[(i + 1) % clip.length][0] * y, 0)) / 2;
+      for (const metric of metrics) {
+        const d = voronoi(sites, { clip, metric });
+        expect(checkMesh(d.mesh).problems, `metric ${metric}`).toEqual([]);
+        expect(Math.abs(d.totalArea() - area)).toBeLessThanOrEqual(1e-12 * area);
+      }
+    }
   });
 
   const bad: [string, unknown, string, number | null][] = [

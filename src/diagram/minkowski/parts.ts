@@ -63,7 +63,13 @@ export class MeshParts {
         if (sideOut < 0 || t < tOut) { tOut = t; sideOut = j; }
       }
     }
-    if (sideIn >= 0 && sideOut >= 0 && !(tIn < tOut)) return false;
+    if (sideIn >= 0 && sideOut >= 0) {
+      if (!(tIn < tOut)) return false;
+      // Entering and leaving within rounding of one point (a line through a corner, touching it only): the
+      // part inside must reach strictly inside, by the same rule, or it is a sliver of no length.
+      const tm = (tIn + tOut) / 2;
+      if (!this.inside(px + tm * (qx - px), py + tm * (qy - py))) return false;
+    }
     this.tIn = tIn; this.tOut = tOut; this.sideIn = sideIn; this.sideOut = sideOut;
     return true;
   }
