@@ -256,9 +256,22 @@ export class Triangulation {
       return;
     }
     const local = new Float64Array(2 * n);
-    for (let r = 0; r < n; r++) {
-      local[2 * r] = xy[2 * siteOfRank[r]];
-      local[2 * r + 1] = xy[2 * siteOfRank[r] + 1];
+    // Equal weights change nothing: such builds take the unweighted path and give its result exactly.
+    const lw = weighted ? new Float64Array(n) : null, xyw = weighted ? new Float64Array(3 * n) : null;
+    if (lw !== null && xyw !== null) {
+      // One gather for coordinates and weights: the reads by site are the scattered ones.
+      const w = this.siteW!;
+      for (let r = 0; r < n; r++) {
+        const q = siteOfRank[r], x = xy[2 * q], y = xy[2 * q + 1], wq = w[q];
+        local[2 * r] = x; local[2 * r + 1] = y;
+        lw[r] = wq;
+        xyw[3 * r] = x; xyw[3 * r + 1] = y; xyw[3 * r + 2] = wq;
+      }
+    } else {
+      for (let r = 0; r < n; r++) {
+        local[2 * r] = xy[2 * siteOfRank[r]];
+        local[2 * r + 1] = xy[2 * siteOfRank[r] + 1];
+      }
     }
     const a = ord[0], b = ord[1];
     let k = 2;
@@ -274,11 +287,8 @@ export class Triangulation {
     }
     this.dimension = 2;
     const store = new TriangleStore(local, 2 * n - 2);
-    if (weighted) {
-      // Equal weights change nothing: such builds take the unweighted path and give its result exactly.
-      const w = this.siteW!, lw = new Float64Array(n);
-      for (let r = 0; r < n; r++) lw[r] = w[siteOfRank[r]];
-      store.setWeights(lw);
+    if (lw !== null && xyw !== null) {
+      store.setWeights(lw, xyw);
       this.rankW = lw;
     }
     // orient2d < 0 is counter-clockwise (y-up).
@@ -290,7 +300,9 @@ export class Triangulation {
     if (weighted) store.cleanupRedundant();
     if (store.removed.length > 0) {
       store.pack();
-      this.hidden = Int32Array.from(store.removed, (r) => siteOfRank[r]).sort();
+      const removed = store.removed, hidden = new Int32Array(removed.length);
+      for (let i = 0; i < removed.length; i++) hidden[i] = siteOfRank[removed[i]];
+      this.hidden = hidden.sort();
     }
     this.store = store;
     this.rankXY = local;
