@@ -6,6 +6,7 @@ import { voronoi, type VoronoiDiagram } from '../diagram/voronoi.js';
 import { balanceAreas, type BalanceProgress } from './balance-areas.js';
 import { balanceDemand } from './balance-demand.js';
 import { measureCells } from './power-measure.js';
+import { checkOptionNames } from '../core/options.js';
 
 export type { BalanceProgress } from './balance-areas.js';
 
@@ -135,6 +136,7 @@ function competitors(d: VoronoiDiagram, xy: Float64Array, i: number): Int32Array
  */
 export function balanceTerritories(sites: PointInput, options: BalanceOptions): BalanceResult {
   if (options === null || typeof options !== 'object') throw optionError('bad-option', 'options must be an object', 'options');
+  checkOptionNames(options, ['clip', 'targets', 'shares', 'demand', 'maxIterations', 'tolerance', 'onProgress'], 'balanceTerritories');
   const xy = readPoints(sites), n = xy.length >> 1;
   const maxIterations = readCount(options.maxIterations, 'maxIterations', 50);
   const tolerance = options.tolerance ?? 1e-6;

@@ -6,6 +6,7 @@ import { triangulate } from '../triangulate/triangulation.js';
 import { DensitySum, MomentSum, normalizedSecondMoment, polygonSecondMoment } from './second-moment.js';
 import { clipToStudyArea, studyAreaBounds, type StudyAreaCells } from './study-area/study-area-cells.js';
 import type { StudyAreaInput } from './study-area/area-input.js';
+import { checkOptionNames } from '../core/options.js';
 
 export interface RelaxOptions {
   /** The region: a rectangle or a convex polygon (as for voronoi). Required unless `area` is given. */
@@ -83,6 +84,7 @@ function readOptions(options: RelaxOptions): { steps: number; tolerance: number 
  */
 export function relax(points: PointInput, options: RelaxOptions): RelaxResult {
   const { steps, tolerance } = readOptions(options);
+  checkOptionNames(options, ['clip', 'area', 'steps', 'tolerance', 'density', 'onProgress'], 'relax');
   const area = options.area;
   // studyAreaBounds reads (and so checks) the area before any work.
   const region = readClipRegion(options.clip ?? studyAreaBounds(area!));

@@ -10,6 +10,7 @@ import { paddedBounds, readClipRegion, type ClipRegion } from './region.js';
 import { MetricVoronoiDiagram } from './metric/diagram.js';
 import { readMetric, type Metric } from './metric/options.js';
 import { MinkowskiVoronoiDiagram } from './minkowski/diagram.js';
+import { checkOptionNames } from '../core/options.js';
 
 export interface VoronoiOptions {
   /**
@@ -85,6 +86,7 @@ export class VoronoiDiagram extends ClippedCells {
 export function voronoi(input: PointInput | Triangulation, options?: VoronoiOptions & { metric?: 'L2' | 2 }): VoronoiDiagram;
 export function voronoi(input: PointInput | Triangulation, options: VoronoiOptions): VoronoiDiagram | MetricVoronoiDiagram | MinkowskiVoronoiDiagram;
 export function voronoi(input: PointInput | Triangulation, options: VoronoiOptions = {}): VoronoiDiagram | MetricVoronoiDiagram | MinkowskiVoronoiDiagram {
+  checkOptionNames(options, ['clip', 'method', 'metric', 'tolerance', 'weights'], 'voronoi');
   const method = options.method === undefined ? 'dual' : options.method;
   if (method !== 'dual' && method !== 'sweep') {
     throw new InputError('bad-option', `method must be 'dual' or 'sweep', got ${String(method)}`, -1, 'method');

@@ -6,6 +6,7 @@ import { mergeDuplicates, type SiteSet } from '../core/dedupe.js';
 import { HalfEdgeMesh } from '../mesh/mesh.js';
 import { TriangleStore, GHOST } from './store.js';
 import { brioOrder, identityOrder } from './order.js';
+import { checkOptionNames } from '../core/options.js';
 
 /** How sites are ordered before insertion. */
 export type InsertionOrder = 'brio' | 'hilbert' | 'input';
@@ -681,6 +682,7 @@ function pathMesh(vertexXY: Float64Array, path: Int32Array): HalfEdgeMesh {
  * topological decision exact. Throws InputError on invalid input.
  */
 export function triangulate(points: PointInput, options: TriangulateOptions = {}): Triangulation {
+  checkOptionNames(options, ['order', 'weights'], 'triangulate');
   const order = options.order ?? 'brio';
   if (order !== 'hilbert' && order !== 'brio' && order !== 'input') {
     throw new InputError('bad-option', `order must be 'hilbert', 'brio' or 'input', got ${String(order)}`, -1, 'order');

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { AmbitError, InputError, triangulate, type Triangulation } from '../../src/index.js';
+import { AmbitError, balanceTerritories, InputError, relax, triangulate, voronoi, type Triangulation } from '../../src/index.js';
 
 interface Expected { code: string; index: number; field: string }
 
@@ -77,6 +77,22 @@ describe('triangulate rejects bad input with a typed error naming the first bad 
       { code: 'bad-option', index: -1, field: 'order' },
     );
     expect(e.message).toContain('zigzag');
+  });
+
+  it('rejects a misspelt option of any builder, naming it, instead of ignoring it', () => {
+    const pts = [0, 0, 1, 0, 0, 1];
+    const cases: [string, () => unknown][] = [
+      ['metirc', () => voronoi(pts, { metirc: 'L1' } as never)],
+      ['construction', () => voronoi(pts, { construction: 'sweep' } as never)],
+      ['wieghts', () => triangulate(pts, { wieghts: [1, 2, 3] } as never)],
+      ['step', () => relax(pts, { clip: { minX: 0, minY: 0, maxX: 1, maxY: 1 }, step: 5 } as never)],
+      ['share', () => balanceTerritories(pts, { clip: { minX: 0, minY: 0, maxX: 1, maxY: 1 }, share: [1, 1, 1] } as never)],
+    ];
+    for (const [key, call] of cases) {
+      const e = expectInputError(call, { code: 'bad-option', index: -1, field: key });
+      expect(e.message).toContain(`unknown option '${key}'`);
+    }
+    expectInputError(() => voronoi(pts, [] as never), { code: 'bad-option', index: -1, field: 'options' });
   });
 });
 
