@@ -35,13 +35,14 @@ export function writeAtomically(path: string, write: (sink: TextSink) => void, o
   }
   let bytes = 0;
   try {
-    write((chunk) => {
-      const buf = Buffer.from(chunk, 'utf8');
+    const put = (buf: Uint8Array): void => {
       let off = 0;
       while (off < buf.length) off += writeSync(fd, buf, off);
       bytes += buf.length;
       onBytes?.(bytes);
-    });
+    };
+    // Writers that build bytes hand them over directly (no text to make and encode again).
+    write(Object.assign((chunk: string) => put(Buffer.from(chunk, 'utf8')), { bytes: put }));
     closeSync(fd);
     renameSync(tmp, path);
   } catch (err) {
