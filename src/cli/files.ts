@@ -20,6 +20,15 @@ export function readText(path: string): string {
   }
 }
 
+/** A whole file as bytes; a missing or unreadable file is an I/O error (exit 3). */
+export function readBytes(path: string): Uint8Array {
+  try {
+    return readFileSync(path);
+  } catch (err) {
+    throw new CliError(EXIT.io, `cannot read ${path}: ${ioMessage(err)}`);
+  }
+}
+
 /**
  * Writes a file through a temporary file in the same folder, renamed into
  * place only when the writer finishes: on any error nothing is left behind,

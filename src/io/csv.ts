@@ -1,4 +1,5 @@
 import { FormatError } from '../core/errors.js';
+import { parseDecimal } from './decimal-bytes.js';
 
 export interface CSVSiteOptions {
   /** Column of x (default "x"). */
@@ -129,5 +130,91 @@ export function readCSVSites(text: string, options: CSVSiteOptions = {}): SiteTa
     weights: weights ? weights.slice(0, count) : null,
     ids,
     where: (i) => `line ${rowLines[i]}`,
+  };
+}
+
+let utf8Decoder: InstanceType<typeof TextDecoder> | null = null;
+
+/**
+ * readCSVSites for the bytes of a UTF-8 file, read in place: no text for
+ * the whole file, none per field. Plain files (no quotes, LF or CRLF line
+ * ends, ASCII ids, numbers without spaces) take this path; any other file,
+ * and every file with an error, is decoded and read by readCSVSites, so the
+ * result and the error messages are the same as there.
+ */
+export function readCSVSiteBytes(bytes: Uint8Array, options: CSVSiteOptions = {}): SiteTable {
+  return readPlainCSV(bytes, options) ?? readCSVSites((utf8Decoder ??= new TextDecoder('utf-8')).decode(bytes), options);
+}
+
+/** The fast path of readCSVSiteBytes; null when the file needs the careful one. */
+function readPlainCSV(b: Uint8Array, options: CSVSiteOptions): SiteTable | null {
+  const n = b.length;
+  let i = n >= 3 && b[0] === 0xef && b[1] === 0xbb && b[2] === 0xbf ? 3 : 0;
+  // The header: its own line, no quotes, ASCII.
+  let end = i;
+  while (end < n && b[end] !== 10) {
+    if (b[end] === 34 || b[end] >= 128 || (b[end] === 13 && end + 1 < n && b[end + 1] !== 10)) return null;
+    end++;
+  }
+  const lineEnd = end > i && b[end - 1] === 13 ? end - 1 : end;
+  let headerText = '';
+  for (let k = i; k < lineEnd; k++) headerText += String.fromCharCode(b[k]);
+  if (headerText.trim() === '') return null;
+  const header = headerText.split(',').map((f) => f.trim());
+  const cx = header.indexOf(options.x ?? 'x'), cy = header.indexOf(options.y ?? 'y');
+  const cw = options.weight === undefined ? -2 : header.indexOf(options.weight);
+  const ci = options.id === undefined ? -2 : header.indexOf(options.id);
+  if (cx < 0 || cy < 0 || cw === -1 || ci === -1) return null;
+  const width = header.length;
+  i = end + 1;
+  let line = 2;
+  let xy = new Float64Array(1 << 16), lines = new Int32Array(1 << 15), count = 0;
+  let weights: Float64Array | null = cw >= 0 ? new Float64Array(1 << 15) : null;
+  const ids: string[] | null = ci >= 0 ? [] : null;
+  let x = 0, y = 0, w = 0, id = '';
+  for (; i < n; line++) {
+    // One line: fields split at commas, up to LF, CRLF or the end.
+    let field = 0, from = i;
+    for (;; i++) {
+      const c = i < n ? b[i] : 10;
+      if (c === 44 || c === 10 || c === 13) {
+        if (c === 13 && !(i + 1 < n && b[i + 1] === 10)) return null;
+        if (field === 0 && c !== 44 && i === from) break; // a blank line
+        if (field === cx) { x = parseDecimal(b, from, i); if (x !== x) return null; }
+        if (field === cy) { y = parseDecimal(b, from, i); if (y !== y) return null; }
+        if (field === cw) { w = parseDecimal(b, from, i); if (w !== w) return null; }
+        if (field === ci) {
+          id = '';
+          for (let k = from; k < i; k++) id += String.fromCharCode(b[k]);
+        }
+        field++;
+        from = i + 1;
+        if (c !== 44) break;
+      } else if (c === 34 || c >= 128) {
+        return null;
+      }
+    }
+    i += i < n && b[i] === 13 ? 2 : 1;
+    if (field === 0) continue;
+    if (field !== width) return null;
+    if (2 * count + 2 > xy.length) {
+      const bigger = new Float64Array(2 * xy.length); bigger.set(xy); xy = bigger;
+      const l2 = new Int32Array(2 * lines.length); l2.set(lines); lines = l2;
+      if (weights) { const w2 = new Float64Array(2 * weights.length); w2.set(weights); weights = w2; }
+    }
+    xy[2 * count] = x;
+    xy[2 * count + 1] = y;
+    if (weights) weights[count] = w;
+    if (ids) ids.push(id);
+    lines[count] = line;
+    count++;
+  }
+  if (count === 0) return null;
+  const rowLines = lines;
+  return {
+    xy: xy.slice(0, 2 * count),
+    weights: weights ? weights.slice(0, count) : null,
+    ids,
+    where: (k) => `line ${rowLines[k]}`,
   };
 }
