@@ -86,6 +86,26 @@ function integerDigits(v: number): number {
   return z;
 }
 
+/** Writes the digits of 1e14 <= v < 1e15 and then fd's fracDigits (1 or 2) digits; returns the position after them. */
+function fifteenDigits(v: number, fd: number, fracDigits: number, out: Uint8Array, pos: number): number {
+  const hi = Math.floor(v / 1e8), lo = v - hi * 1e8;
+  // hi has seven digits: one, then three pairs.
+  const h1 = (hi / 1000000) | 0, h2 = hi - h1 * 1000000, a = (h2 / 10000) | 0, r = h2 - a * 10000, b = (r / 100) | 0, c = r - b * 100;
+  out[pos] = 48 + h1;
+  out[pos + 1] = PAIRS[2 * a]; out[pos + 2] = PAIRS[2 * a + 1];
+  out[pos + 3] = PAIRS[2 * b]; out[pos + 4] = PAIRS[2 * b + 1];
+  out[pos + 5] = PAIRS[2 * c]; out[pos + 6] = PAIRS[2 * c + 1];
+  const l1 = (lo / 10000) | 0, l2 = lo - l1 * 10000;
+  const d = (l1 / 100) | 0, e = l1 - d * 100, f = (l2 / 100) | 0, g = l2 - f * 100;
+  out[pos + 7] = PAIRS[2 * d]; out[pos + 8] = PAIRS[2 * d + 1];
+  out[pos + 9] = PAIRS[2 * e]; out[pos + 10] = PAIRS[2 * e + 1];
+  out[pos + 11] = PAIRS[2 * f]; out[pos + 12] = PAIRS[2 * f + 1];
+  out[pos + 13] = PAIRS[2 * g]; out[pos + 14] = PAIRS[2 * g + 1];
+  if (fracDigits === 2) { out[pos + 15] = PAIRS[2 * fd]; out[pos + 16] = PAIRS[2 * fd + 1]; return pos + 17; }
+  out[pos + 15] = 48 + fd;
+  return pos + 16;
+}
+
 /**
  * Lays out the significant digits digits[from..end) with decimal exponent n
  * (value = 0.d1d2... * 10^n) as Number.prototype.toString does.
@@ -184,6 +204,22 @@ export function writeShortest(x: number, out: Uint8Array, pos: number): number {
     }
     // fd has exactly fracDigits digits, its last one nonzero (rounder candidates were found above).
     if (fd <= 0 || fd >= (fracDigits === 1 ? 10 : 100) || fd % 10 === 0 || int < 1) return writeAscii(String(a), out, pos);
+    if (int >= 1e14) {
+      // The usual case, 15 + fracDigits digits: written straight into the output.
+      n = 15 - p;
+      if (n <= 0 && n > -6) {
+        out[pos++] = 48; out[pos++] = 46;
+        for (let i = n; i < 0; i++) out[pos++] = 48;
+        return fifteenDigits(int, fd, fracDigits, out, pos);
+      }
+      if (n > 0) {
+        // Digits one place to the right, then the first n moved back over the gap and the point put in it.
+        const after = fifteenDigits(int, fd, fracDigits, out, pos + 1);
+        for (let i = 0; i < n; i++) out[pos + i] = out[pos + 1 + i];
+        out[pos + n] = 46;
+        return after;
+      }
+    }
     from = integerDigits(int);
     end = 16;
     n = 16 - from - p;
