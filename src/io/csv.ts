@@ -1,5 +1,5 @@
 import { FormatError } from '../core/errors.js';
-import { parseDecimal } from './decimal-bytes.js';
+import { decimalEnd, parseDecimalPrefix } from './decimal-bytes.js';
 
 export interface CSVSiteOptions {
   /** Column of x (default "x"). */
@@ -165,6 +165,8 @@ function readPlainCSV(b: Uint8Array, options: CSVSiteOptions): SiteTable | null 
   const cw = options.weight === undefined ? -2 : header.indexOf(options.weight);
   const ci = options.id === undefined ? -2 : header.indexOf(options.id);
   if (cx < 0 || cy < 0 || cw === -1 || ci === -1) return null;
+  // An id column that is also read as a number: rare, left to the careful path.
+  if (ci >= 0 && (ci === cx || ci === cy || ci === cw)) return null;
   const width = header.length;
   i = end + 1;
   let line = 2;
@@ -173,29 +175,43 @@ function readPlainCSV(b: Uint8Array, options: CSVSiteOptions): SiteTable | null 
   const ids: string[] | null = ci >= 0 ? [] : null;
   let x = 0, y = 0, w = 0, id = '';
   for (; i < n; line++) {
-    // One line: fields split at commas, up to LF, CRLF or the end.
-    let field = 0, from = i;
-    for (;; i++) {
-      const c = i < n ? b[i] : 10;
-      if (c === 44 || c === 10 || c === 13) {
-        if (c === 13 && !(i + 1 < n && b[i + 1] === 10)) return null;
-        if (field === 0 && c !== 44 && i === from) break; // a blank line
-        if (field === cx) { x = parseDecimal(b, from, i); if (x !== x) return null; }
-        if (field === cy) { y = parseDecimal(b, from, i); if (y !== y) return null; }
-        if (field === cw) { w = parseDecimal(b, from, i); if (w !== w) return null; }
-        if (field === ci) {
-          id = '';
-          for (let k = from; k < i; k++) id += String.fromCharCode(b[k]);
+    // A blank line.
+    if (b[i] === 10) { i++; continue; }
+    if (b[i] === 13 && i + 1 < n && b[i + 1] === 10) { i += 2; continue; }
+    // One line, field by field: numbers are read in place, other fields skipped (a quote anywhere needs the careful path).
+    let field = 0;
+    for (;;) {
+      if (field === cx || field === cy || field === cw) {
+        const v = parseDecimalPrefix(b, i, n);
+        if (v !== v) return null;
+        if (field === cx) x = v;
+        if (field === cy) y = v;
+        if (field === cw) w = v;
+        i = decimalEnd;
+      } else if (field === ci) {
+        id = '';
+        for (; i < n; i++) {
+          const c = b[i];
+          if (c === 44 || c === 10 || c === 13) break;
+          if (c === 34 || c >= 128) return null;
+          id += String.fromCharCode(c);
         }
-        field++;
-        from = i + 1;
-        if (c !== 44) break;
-      } else if (c === 34 || c >= 128) {
-        return null;
+      } else {
+        for (; i < n; i++) {
+          const c = b[i];
+          if (c === 44 || c === 10 || c === 13) break;
+          if (c === 34) return null;
+        }
       }
+      field++;
+      if (i >= n) break;
+      const c = b[i];
+      if (c === 44) { i++; continue; }
+      if (c === 10) { i++; break; }
+      if (c === 13 && i + 1 < n && b[i + 1] === 10) { i += 2; break; }
+      // Anything else after a number (a space, a letter) or a lone CR.
+      return null;
     }
-    i += i < n && b[i] === 13 ? 2 : 1;
-    if (field === 0) continue;
     if (field !== width) return null;
     if (2 * count + 2 > xy.length) {
       const bigger = new Float64Array(2 * xy.length); bigger.set(xy); xy = bigger;

@@ -71,6 +71,20 @@ function divide(S: number, s: number, k: number): number {
 
 /** Number(text) of bytes[start..end) when it is a plain decimal; NaN otherwise. */
 export function parseDecimal(bytes: Uint8Array, start: number, end: number): number {
+  const v = parseDecimalPrefix(bytes, start, end);
+  return decimalEnd === end ? v : NaN;
+}
+
+/** Where the number read by the last parseDecimalPrefix ended. */
+export let decimalEnd = 0;
+
+/**
+ * The plain decimal at the start of bytes[start..limit), as parseDecimal
+ * reads it, ending at the first byte that cannot continue it (decimalEnd
+ * says where); NaN when no decimal starts there or its exponent has no digits.
+ */
+export function parseDecimalPrefix(bytes: Uint8Array, start: number, limit: number): number {
+  const end = limit;
   let i = start;
   let neg = false;
   if (i < end && (bytes[i] === 45 || bytes[i] === 43)) { neg = bytes[i] === 45; i++; }
@@ -110,9 +124,10 @@ export function parseDecimal(bytes: Uint8Array, start: number, end: number): num
     if (i === from) return NaN;
     if (eneg) exp = -exp;
   }
-  if (i !== end) return NaN;
+  decimalEnd = i;
+  const stop = i;
   if (nd === 0) return neg ? -0 : 0;
-  if (nd > 17) return slow(bytes, start, end);
+  if (nd > 17) return slow(bytes, start, stop);
   const E = exp - frac;
   // a * 10^nb is exact: a < 1e9 and 5^nb <= 5^8, so a * 5^nb < 2^53.
   const S0 = a * POW10[nb];
@@ -121,12 +136,12 @@ export function parseDecimal(bytes: Uint8Array, start: number, end: number): num
   if (S < TWO53 && s === 0) {
     if (E >= 0 && E <= 22) v = S * POW10[E];
     else if (E < 0 && E >= -22) v = S / POW10[-E];
-    else return slow(bytes, start, end);
+    else return slow(bytes, start, stop);
   } else if (E <= 0 && E >= -22) {
     v = divide(S, s, -E);
-    if (v !== v) return slow(bytes, start, end);
+    if (v !== v) return slow(bytes, start, stop);
   } else {
-    return slow(bytes, start, end);
+    return slow(bytes, start, stop);
   }
   return neg ? -v : v;
 }
