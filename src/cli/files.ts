@@ -20,6 +20,15 @@ export function readText(path: string): string {
   }
 }
 
+/** A whole file as bytes; a missing or unreadable file is an I/O error (exit 3). */
+export function readBytes(path: string): Uint8Array {
+  try {
+    return readFileSync(path);
+  } catch (err) {
+    throw new CliError(EXIT.io, `cannot read ${path}: ${ioMessage(err)}`);
+  }
+}
+
 /**
  * Writes a file through a temporary file in the same folder, renamed into
  * place only when the writer finishes: on any error nothing is left behind,
@@ -35,13 +44,14 @@ export function writeAtomically(path: string, write: (sink: TextSink) => void, o
   }
   let bytes = 0;
   try {
-    write((chunk) => {
-      const buf = Buffer.from(chunk, 'utf8');
+    const put = (buf: Uint8Array): void => {
       let off = 0;
       while (off < buf.length) off += writeSync(fd, buf, off);
       bytes += buf.length;
       onBytes?.(bytes);
-    });
+    };
+    // Writers that build bytes hand them over directly (no text to make and encode again).
+    write(Object.assign((chunk: string) => put(Buffer.from(chunk, 'utf8')), { bytes: put }));
     closeSync(fd);
     renameSync(tmp, path);
   } catch (err) {

@@ -4,11 +4,11 @@ import { readClipRegion, type ClipRegion } from '../diagram/region.js';
 import { studyAreaBounds } from '../analyze/study-area/study-area-cells.js';
 import { readMeshJSON } from '../mesh/json.js';
 import { readTriangulationJSON } from '../triangulate/json.js';
-import { readCSVSites, type SiteTable } from '../io/csv.js';
+import { readCSVSiteBytes, type SiteTable } from '../io/csv.js';
 import { readGeoJSONPolygons, readGeoJSONSites } from '../io/geojson-read.js';
 import { parseJSONInput } from '../core/untrusted.js';
 import { CliError, EXIT, usageError } from './exit.js';
-import { readText } from './files.js';
+import { readBytes, readText } from './files.js';
 
 export interface SiteColumns { x?: string; y?: string; weight?: string; id?: string }
 
@@ -59,9 +59,13 @@ export function loadSites(file: string, cols: SiteColumns): SiteTable {
   if (ext !== 'csv' && (cols.x !== undefined || cols.y !== undefined)) {
     throw usageError('--x and --y name CSV columns; GeoJSON and JSON points carry their own coordinates');
   }
+  // CSV is read from its bytes: most files never become text.
+  if (ext === 'csv') {
+    const bytes = readBytes(file);
+    return asDataError(file, () => readCSVSiteBytes(bytes, cols));
+  }
   const text = readText(file);
   return asDataError(file, () => {
-    if (ext === 'csv') return readCSVSites(text, cols);
     if (text.trim() === '') throw new FormatError('empty', 'the file is empty', '');
     const value = parseJSONInput(text, 'JSON');
     if (ext === 'geojson') return readGeoJSONSites(value, cols);

@@ -8,7 +8,7 @@ import { ConvexRegion } from './clip.js';
 /** A cell's neighbours and the length of the boundary shared with each. */
 export interface CellNeighbors { sites: Int32Array; lengths: Float64Array }
 
-interface Measures { area: Float64Array; centroid: Float64Array; perimeter: Float64Array }
+interface Measures { area: Float64Array; centroid: Float64Array; perimeter: Float64Array; neighbors: Int32Array }
 
 /**
  * What every clipped diagram offers on top of its mesh (face s = cell of
@@ -86,13 +86,19 @@ export abstract class ClippedCells {
     if (this.measured) return this.measured;
     const n = this.triangulation.siteCount, m = this.mesh, xy = m.vertexXY, origin = m.origin, next = m.next;
     const area = new Float64Array(n), centroid = new Float64Array(2 * n).fill(NaN), perimeter = new Float64Array(n);
-    const face = m.face, faceEdge = m.faceEdge, faceSite = m.faceSite, H = origin.length;
+    const neighbors = new Int32Array(n);
+    const face = m.face, twin = m.twin, faceEdge = m.faceEdge, faceSite = m.faceSite;
     // Cells in the order of their first half-edge, not of their sites: the mesh lays cells out along the
     // sites' curve order, so neighbouring cells, and the vertices they share, are read from nearby memory.
-    for (let start = 0; start < H; start++) {
-      const f = face[start];
-      if (faceEdge[f] !== start) continue;
-      const s = faceSite[f];
+    // The first half-edges are collected and sorted rather than found by scanning every half-edge.
+    let starts = new Int32Array(n), k = 0;
+    for (let s = 0; s < n; s++) {
+      const f = this.faceOfSite[s];
+      if (f >= 0) starts[k++] = faceEdge[f];
+    }
+    starts = starts.subarray(0, k).sort();
+    for (let i = 0; i < k; i++) {
+      const start = starts[i], f = face[start], s = faceSite[f];
       if (s < 0 || this.faceOfSite[s] !== f) continue;
       // Relative to the cell's first vertex: coordinates far from the origin keep their precision, and
       // a thin cell far from its site does not cancel itself away.
@@ -101,9 +107,13 @@ export abstract class ClippedCells {
       let a2 = 0, cx = 0, cy = 0, per = 0, mx = 0, my = 0, count = 0;
       // The cell's box, relative to its first vertex: the centroid must fall inside it.
       let loX = 0, loY = 0, hiX = 0, hiY = 0;
+      // Neighbours in the same walk: runs of edges with the same site across count once (cellNeighbors merges
+      // them the same way), including a run that wraps around the cell's first edge.
+      let neighborCount = 0, last = -1, first = -2;
       let e = start;
       do {
-        const q = origin[next[e]];
+        const en = next[e];
+        const q = origin[en];
         const p = origin[e];
         const x0 = xy[2 * p] - ox, y0 = xy[2 * p + 1] - oy, x1 = xy[2 * q] - ox, y1 = xy[2 * q + 1] - oy;
         const cross = x0 * y1 - x1 * y0;
@@ -116,8 +126,13 @@ export abstract class ClippedCells {
         mx += x0; my += y0; count++;
         if (x0 < loX) loX = x0; else if (x0 > hiX) hiX = x0;
         if (y0 < loY) loY = y0; else if (y0 > hiY) hiY = y0;
-        e = next[e];
+        const other = faceSite[face[twin[e]]];
+        if (other >= 0 && other !== last) { neighborCount++; if (first === -2) first = other; }
+        last = other;
+        e = en;
       } while (e !== start);
+      if (neighborCount > 1 && last === first) neighborCount--;
+      neighbors[s] = neighborCount;
       area[s] = a2 / 2;
       perimeter[s] = per;
       const gx = cx / (3 * a2), gy = cy / (3 * a2);
@@ -126,7 +141,7 @@ export abstract class ClippedCells {
       centroid[2 * s] = ox + (thin ? mx / count : gx);
       centroid[2 * s + 1] = oy + (thin ? my / count : gy);
     }
-    this.measured = { area, centroid, perimeter };
+    this.measured = { area, centroid, perimeter, neighbors };
     return this.measured;
   }
 
@@ -180,29 +195,8 @@ export abstract class ClippedCells {
   }
 
   /** For every site, how many cells its cell shares a boundary with. */
-  neighborCounts(): Int32Array {
-    const n = this.triangulation.siteCount, out = new Int32Array(n), m = this.mesh;
-    const face = m.face, twin = m.twin, next = m.next, faceSite = m.faceSite, faceEdge = m.faceEdge, H = m.origin.length;
-    // Cells in the order of their first half-edge, as measure() walks them (nearby cells, nearby memory).
-    for (let start = 0; start < H; start++) {
-      const f = face[start];
-      if (faceEdge[f] !== start) continue;
-      const s = faceSite[f];
-      if (s < 0 || this.faceOfSite[s] !== f) continue;
-      // Runs of edges with the same site across count once (cellNeighbors merges them the same way),
-      // including a run that wraps around the cell's first edge.
-      let e = start, count = 0, last = -1, first = -2;
-      do {
-        const other = faceSite[face[twin[e]]];
-        if (other >= 0 && other !== last) { count++; if (first === -2) first = other; }
-        last = other;
-        e = next[e];
-      } while (e !== start);
-      if (count > 1 && last === first) count--;
-      out[s] = count;
-    }
-    return out;
-  }
+  neighborCounts(): Int32Array { return this.measure().neighbors.slice(); }
+
 
   /**
    * The site whose cell contains (x, y): its nearest site when the point is

@@ -1,6 +1,6 @@
 import type { ClippedCells } from '../diagram/cells.js';
 import { measuresOf } from './cells-source.js';
-import { ChunkedText, collectText, numberFormat, type TextSink } from './text-sink.js';
+import { ByteText, collectText, type TextSink } from './text-sink.js';
 
 /** A CSV field, quoted when it holds a comma, quote or line break (RFC 4180 style). */
 export function csvField(v: string): string {
@@ -14,17 +14,25 @@ export function csvField(v: string): string {
  * exact (shortest round-trip text).
  */
 export function writeCellTable(d: ClippedCells, sink: TextSink, ids?: ArrayLike<string | number>): void {
-  const ms = measuresOf(d), xy = d.triangulation.siteXY, fmt = numberFormat(undefined);
-  const num = (v: number): string => (Number.isFinite(v) ? fmt(v) : '');
-  const out = new ChunkedText(sink);
-  out.add('site' + (ids ? ',id' : '') + ',x,y' + (ms.weights ? ',weight' : '') + ',area,perimeter,centroid_x,centroid_y,neighbors\n');
+  const ms = measuresOf(d), xy = d.triangulation.siteXY, neighbors = ms.neighbors!;
+  const out = new ByteText(sink);
+  out.ascii('site' + (ids ? ',id' : '') + ',x,y' + (ms.weights ? ',weight' : '') + ',area,perimeter,centroid_x,centroid_y,neighbors\n');
   for (let s = 0; s < ms.count; s++) {
-    let row = String(s);
-    if (ids) row += ',' + (ids[s] === undefined ? '' : csvField(String(ids[s])));
-    row += ',' + num(xy[2 * s]) + ',' + num(xy[2 * s + 1]);
-    if (ms.weights) row += ',' + num(ms.weights[s]);
-    row += ',' + num(ms.area[s]) + ',' + num(ms.perimeter[s]) + ',' + num(ms.centroid[2 * s]) + ',' + num(ms.centroid[2 * s + 1]) + ',' + ms.neighbors![s] + '\n';
-    out.add(row);
+    out.int(s);
+    if (ids) {
+      out.char(44);
+      if (ids[s] !== undefined) out.text(csvField(String(ids[s])));
+    }
+    out.char(44); out.numOrEmpty(xy[2 * s]);
+    out.char(44); out.numOrEmpty(xy[2 * s + 1]);
+    if (ms.weights) { out.char(44); out.numOrEmpty(ms.weights[s]); }
+    out.char(44); out.numOrEmpty(ms.area[s]);
+    out.char(44); out.numOrEmpty(ms.perimeter[s]);
+    out.char(44); out.numOrEmpty(ms.centroid[2 * s]);
+    out.char(44); out.numOrEmpty(ms.centroid[2 * s + 1]);
+    out.char(44); out.int(neighbors[s]);
+    out.char(10);
+    out.row();
   }
   out.end();
 }

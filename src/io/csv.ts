@@ -1,4 +1,5 @@
 import { FormatError } from '../core/errors.js';
+import { decimalEnd, parseDecimalPrefix } from './decimal-bytes.js';
 
 export interface CSVSiteOptions {
   /** Column of x (default "x"). */
@@ -129,5 +130,107 @@ export function readCSVSites(text: string, options: CSVSiteOptions = {}): SiteTa
     weights: weights ? weights.slice(0, count) : null,
     ids,
     where: (i) => `line ${rowLines[i]}`,
+  };
+}
+
+let utf8Decoder: InstanceType<typeof TextDecoder> | null = null;
+
+/**
+ * readCSVSites for the bytes of a UTF-8 file, read in place: no text for
+ * the whole file, none per field. Plain files (no quotes, LF or CRLF line
+ * ends, ASCII ids, numbers without spaces) take this path; any other file,
+ * and every file with an error, is decoded and read by readCSVSites, so the
+ * result and the error messages are the same as there.
+ */
+export function readCSVSiteBytes(bytes: Uint8Array, options: CSVSiteOptions = {}): SiteTable {
+  return readPlainCSV(bytes, options) ?? readCSVSites((utf8Decoder ??= new TextDecoder('utf-8')).decode(bytes), options);
+}
+
+/** The fast path of readCSVSiteBytes; null when the file needs the careful one. */
+function readPlainCSV(b: Uint8Array, options: CSVSiteOptions): SiteTable | null {
+  const n = b.length;
+  let i = n >= 3 && b[0] === 0xef && b[1] === 0xbb && b[2] === 0xbf ? 3 : 0;
+  // The header: its own line, no quotes, ASCII.
+  let end = i;
+  while (end < n && b[end] !== 10) {
+    if (b[end] === 34 || b[end] >= 128 || (b[end] === 13 && end + 1 < n && b[end + 1] !== 10)) return null;
+    end++;
+  }
+  const lineEnd = end > i && b[end - 1] === 13 ? end - 1 : end;
+  let headerText = '';
+  for (let k = i; k < lineEnd; k++) headerText += String.fromCharCode(b[k]);
+  if (headerText.trim() === '') return null;
+  const header = headerText.split(',').map((f) => f.trim());
+  const cx = header.indexOf(options.x ?? 'x'), cy = header.indexOf(options.y ?? 'y');
+  const cw = options.weight === undefined ? -2 : header.indexOf(options.weight);
+  const ci = options.id === undefined ? -2 : header.indexOf(options.id);
+  if (cx < 0 || cy < 0 || cw === -1 || ci === -1) return null;
+  // An id column that is also read as a number: rare, left to the careful path.
+  if (ci >= 0 && (ci === cx || ci === cy || ci === cw)) return null;
+  const width = header.length;
+  i = end + 1;
+  let line = 2;
+  let xy = new Float64Array(1 << 16), lines = new Int32Array(1 << 15), count = 0;
+  let weights: Float64Array | null = cw >= 0 ? new Float64Array(1 << 15) : null;
+  const ids: string[] | null = ci >= 0 ? [] : null;
+  let x = 0, y = 0, w = 0, id = '';
+  for (; i < n; line++) {
+    // A blank line.
+    if (b[i] === 10) { i++; continue; }
+    if (b[i] === 13 && i + 1 < n && b[i + 1] === 10) { i += 2; continue; }
+    // One line, field by field: numbers are read in place, other fields skipped (a quote anywhere needs the careful path).
+    let field = 0;
+    for (;;) {
+      if (field === cx || field === cy || field === cw) {
+        const v = parseDecimalPrefix(b, i, n);
+        if (v !== v) return null;
+        if (field === cx) x = v;
+        if (field === cy) y = v;
+        if (field === cw) w = v;
+        i = decimalEnd;
+      } else if (field === ci) {
+        id = '';
+        for (; i < n; i++) {
+          const c = b[i];
+          if (c === 44 || c === 10 || c === 13) break;
+          if (c === 34 || c >= 128) return null;
+          id += String.fromCharCode(c);
+        }
+      } else {
+        for (; i < n; i++) {
+          const c = b[i];
+          if (c === 44 || c === 10 || c === 13) break;
+          if (c === 34) return null;
+        }
+      }
+      field++;
+      if (i >= n) break;
+      const c = b[i];
+      if (c === 44) { i++; continue; }
+      if (c === 10) { i++; break; }
+      if (c === 13 && i + 1 < n && b[i + 1] === 10) { i += 2; break; }
+      // Anything else after a number (a space, a letter) or a lone CR.
+      return null;
+    }
+    if (field !== width) return null;
+    if (2 * count + 2 > xy.length) {
+      const bigger = new Float64Array(2 * xy.length); bigger.set(xy); xy = bigger;
+      const l2 = new Int32Array(2 * lines.length); l2.set(lines); lines = l2;
+      if (weights) { const w2 = new Float64Array(2 * weights.length); w2.set(weights); weights = w2; }
+    }
+    xy[2 * count] = x;
+    xy[2 * count + 1] = y;
+    if (weights) weights[count] = w;
+    if (ids) ids.push(id);
+    lines[count] = line;
+    count++;
+  }
+  if (count === 0) return null;
+  const rowLines = lines;
+  return {
+    xy: xy.slice(0, 2 * count),
+    weights: weights ? weights.slice(0, count) : null,
+    ids,
+    where: (k) => `line ${rowLines[k]}`,
   };
 }
