@@ -107,7 +107,6 @@ class Sweep implements EventTies {
   private evArc: Int32Array = new Int32Array(1024);
   private evSites: Int32Array = new Int32Array(3 * 1024);
   private evKey: Float64Array = new Float64Array(4 * 1024);
-  private evLive: Uint8Array = new Uint8Array(1024);
   /**
    * Events found on one circle by a comparison share a class (union-find,
    * parent links). Cocircular sites make many such events (a ring: all of
@@ -146,8 +145,6 @@ class Sweep implements EventTies {
   /** Events ever made. */
   private created = 0;
   private readonly queue: EventQueue;
-  /** Cancelled events still in the heap. */
-  private dead = 0;
   /**
    * Triangles, 3 ranks each, written straight into the triangulation's
    * store (half-edge 3t+j runs from corner j to corner j+1); the ghosts
@@ -198,7 +195,6 @@ class Sweep implements EventTies {
     }
     for (;;) {
       const queue = this.queue;
-      while (queue.length > 0 && !this.evLive[queue.peek()]) { this.release(queue.pop()); this.dead--; }
       const top = queue.length > 0 ? queue.peek() : -1;
       if (i < n && (top < 0 || this.siteFirst(i, top))) this.siteEvent(i++);
       else if (top >= 0) {
@@ -212,7 +208,7 @@ class Sweep implements EventTies {
 
   /** Every per-event array gets exactly `cap` entries (at least its current size), so that one length governs them all. */
   private growEvents(want: number): void {
-    const cap = Math.max(want, this.evLive.length);
+    const cap = Math.max(want, this.evArc.length);
     const i32 = (a: Int32Array, per: number): Int32Array => { const b = new Int32Array(per * cap); b.set(a); return b; };
     this.evStamp = i32(this.evStamp, 1);
     this.evArc = i32(this.evArc, 1);
@@ -221,7 +217,6 @@ class Sweep implements EventTies {
     this.evClass = i32(this.evClass, 1);
     this.evRow = i32(this.evRow, 1);
     const k = new Float64Array(4 * cap); k.set(this.evKey); this.evKey = k;
-    const l = new Uint8Array(cap); l.set(this.evLive); this.evLive = l;
     const p = new Uint8Array(cap); p.set(this.evPinned); this.evPinned = p;
   }
 
@@ -281,7 +276,6 @@ class Sweep implements EventTies {
     const e = this.newEdge();
     this.edgeHalf[e] = 3 * t + 2;
     b.rightEdge[left] = e;
-    this.evLive[ev] = 0;
     b.event[mid] = -1;
     b.remove(mid);
     // Where the arc vanished its neighbours meet: a fresh hint for that strip.
@@ -303,14 +297,9 @@ class Sweep implements EventTies {
   private cancel(arc: number): void {
     const ev = this.beach.event[arc];
     if (ev >= 0) {
-      this.evLive[ev] = 0;
       this.beach.event[arc] = -1;
-      // Cancelled events far ahead of the line would pile up in the heap (most false alarms
-      // are); once they are the majority, heapify the live ones again: linear, so amortised O(1).
-      if (++this.dead > 1024 && 2 * this.dead > this.queue.length) {
-        this.queue.keepLive(this.evLive, this);
-        this.dead = 0;
-      }
+      this.queue.remove(ev);
+      this.release(ev);
     }
   }
 
@@ -324,14 +313,13 @@ class Sweep implements EventTies {
     const ax = xy[2 * sa], ay = xy[2 * sa + 1], bx = xy[2 * sb], by = xy[2 * sb + 1], cx = xy[2 * sc], cy = xy[2 * sc + 1];
     // The key goes straight into the next free slot, which is taken only if the breakpoints converge.
     const reuse = this.freeCount > 0, ev = reuse ? this.freeSlots[this.freeCount - 1] : this.evCount;
-    if (ev === this.evLive.length) this.growEvents(2 * ev);
+    if (ev === this.evArc.length) this.growEvents(2 * ev);
     if (!circleEventKey(ax, ay, bx, by, cx, cy, this.evKey, 4 * ev)) return;
     if (reuse) this.freeCount--;
     else this.evCount++;
     this.evStamp[ev] = this.created++;
     this.evArc[ev] = m;
     this.evSites[3 * ev] = sa; this.evSites[3 * ev + 1] = sb; this.evSites[3 * ev + 2] = sc;
-    this.evLive[ev] = 1;
     this.evClass[ev] = ev;
     this.evRow[ev] = ev;
     b.event[m] = ev;
@@ -352,7 +340,7 @@ class Sweep implements EventTies {
   }
 
   /** A slot whose event has left the heap: free for the next event, unless a tree holds it. */
-  release(ev: number): void {
+  private release(ev: number): void {
     if (this.evPinned[ev] === 0) this.freeSlots[this.freeCount++] = ev;
   }
 
