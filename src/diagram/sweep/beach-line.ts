@@ -11,27 +11,28 @@ import { breakpointSide } from './exact-keys.js';
  */
 export class BeachLine {
   /** Site of each arc. */
-  readonly site: Int32Array;
+  site: Int32Array;
   /** Neighbouring arcs (-1 at the ends). */
-  readonly prev: Int32Array;
-  readonly next: Int32Array;
+  prev: Int32Array;
+  next: Int32Array;
   /** Per arc, the Delaunay edge record traced by the breakpoint on its right (-1: none). */
-  readonly rightEdge: Int32Array;
+  rightEdge: Int32Array;
   /** Per arc, the pending circle event in which it vanishes (-1: none). */
-  readonly event: Int32Array;
-  private readonly left: Int32Array;
-  private readonly right: Int32Array;
-  private readonly parent: Int32Array;
-  private readonly prio: Uint32Array;
+  event: Int32Array;
+  private left: Int32Array;
+  private right: Int32Array;
+  private parent: Int32Array;
+  private prio: Uint32Array;
   root = -1;
   count = 0;
   /**
    * Arcs removed, for reuse: the live arcs (about the square root of the
    * sites for spread-out input) then keep to a few small ranges of ids that
    * stay in cache, instead of drifting across arrays sized for every arc
-   * ever made. Ids are never compared, so reuse changes no decision.
+   * ever made. Ids are never compared, so reuse changes no decision. For
+   * the same reason the arrays start small and grow on demand.
    */
-  private readonly free: Int32Array;
+  private free: Int32Array;
   private freeCount = 0;
   private seed = 0x9e3779b9;
 
@@ -48,7 +49,24 @@ export class BeachLine {
     this.free = new Int32Array(capacity);
   }
 
+  /** Doubles every per-arc array. */
+  private grow(): void {
+    const cap = 2 * this.site.length;
+    const g = <T extends Int32Array | Uint32Array>(a: T, b: T): T => { b.set(a); return b; };
+    this.site = g(this.site, new Int32Array(cap));
+    this.prev = g(this.prev, new Int32Array(cap));
+    this.next = g(this.next, new Int32Array(cap));
+    this.rightEdge = g(this.rightEdge, new Int32Array(cap));
+    this.event = g(this.event, new Int32Array(cap));
+    this.left = g(this.left, new Int32Array(cap));
+    this.right = g(this.right, new Int32Array(cap));
+    this.parent = g(this.parent, new Int32Array(cap));
+    this.prio = g(this.prio, new Uint32Array(cap));
+    this.free = g(this.free, new Int32Array(cap));
+  }
+
   private newArc(site: number): number {
+    if (this.freeCount === 0 && this.count === this.site.length) this.grow();
     const z = this.freeCount > 0 ? this.free[--this.freeCount] : this.count++;
     // xorshift32: cheap, fixed seed, good enough to balance a treap.
     let s = this.seed;

@@ -1,5 +1,6 @@
 import { inCircle } from '../../core/predicates.js';
 import { radixSort } from '../../core/hilbert.js';
+import { mergeDuplicates } from '../../core/dedupe.js';
 import { HalfEdgeMesh } from '../../mesh/mesh.js';
 import { Triangulation } from '../../triangulate/triangulation.js';
 import { GHOST, TriangleStore } from '../../triangulate/store.js';
@@ -24,11 +25,46 @@ import { circleEventKey, circleVersusCircleExact, circleVersusSiteExact } from '
  * y) starts the beach line as vertical strips, in x order.
  */
 export function sweepTriangulation(xy: Float64Array, n: number, siteOfInput: Int32Array): Triangulation {
-  const sweep = new Sweep(xy, n);
-  sweep.run();
-  const sites = { xy: xy.slice(0, 2 * n), count: n, siteOfInput, curveOrder: new Uint32Array(0) };
-  if (sweep.triCount === 0) return Triangulation.fromMesh(collinearMesh(sites.xy), siteOfInput);
-  return Triangulation.fromStore(sites, sweep.closeHull(sites.xy), sweep.triCount);
+  const store = newStore(xy, n);
+  return sweepOwned(xy.slice(0, 2 * n), n, siteOfInput, sweepOrder(xy, n, store.vert), store);
+}
+
+/**
+ * The sweep of points read from the input (readPoints: a fresh array, which
+ * the triangulation may keep). The sweep's own sort by (y, x) puts equal
+ * points side by side, so it also tells whether there are any: without
+ * them (the usual case) the sites are the points in input order, exactly
+ * what mergeDuplicates would return, and its sort along a curve, which only
+ * the incremental route needs, is skipped.
+ */
+export function sweepPoints(points: Float64Array): Triangulation {
+  const n = points.length >> 1;
+  const store = newStore(points, n);
+  const order = sweepOrder(points, n, store.vert);
+  for (let k = 1; k < n; k++) {
+    const a = 2 * order[k - 1], b = 2 * order[k];
+    if (points[a] === points[b] && points[a + 1] === points[b + 1]) {
+      const sites = mergeDuplicates(points), m = sites.count, fewer = newStore(sites.xy, m);
+      return sweepOwned(sites.xy, m, sites.siteOfInput, sweepOrder(sites.xy, m, fewer.vert), fewer);
+    }
+  }
+  const siteOfInput = new Int32Array(n);
+  for (let i = 0; i < n; i++) siteOfInput[i] = i;
+  return sweepOwned(points, n, siteOfInput, order, store);
+}
+
+/** The store for the sweep of n sites: T triangles and h hull edges with T + h = 2n - 2, all the room it needs. */
+function newStore(xy: Float64Array, n: number): TriangleStore {
+  return new TriangleStore(xy, Math.max(1, 2 * n - 2));
+}
+
+/** The sweep over xy (2n numbers, kept by the triangulation), sites in `order` (sweepOrder), into `store` (newStore). */
+function sweepOwned(xy: Float64Array, n: number, siteOfInput: Int32Array, order: Uint32Array, store: TriangleStore): Triangulation {
+  const sweep = new Sweep(xy, n, store);
+  sweep.run(order);
+  const sites = { xy, count: n, siteOfInput, curveOrder: new Uint32Array(0) };
+  if (sweep.triCount === 0) return Triangulation.fromMesh(collinearMesh(xy), siteOfInput);
+  return Triangulation.fromStore(sites, sweep.closeHull(xy), sweep.triCount);
 }
 
 /** The mesh of sites without a triangle (one or collinear): its vertices only, the rest is fromMesh's. */
@@ -44,8 +80,10 @@ function collinearMesh(vertexXY: Float64Array): HalfEdgeMesh {
  * Sites by (y, x): a radix sort on y quantized to 32 bits (rounding is
  * monotone, so the quantized order never contradicts the true one), then
  * each run of equal keys (a grid row, or close values) sorted exactly.
+ * The keys and the sort's buffers live in `scratch` (the store's triangle
+ * array, written over by the sweep later): its memory is then touched once.
  */
-function sweepOrder(xy: Float64Array, n: number): Uint32Array {
+function sweepOrder(xy: Float64Array, n: number, scratch: Int32Array): Uint32Array {
   let lo = Infinity, hi = -Infinity;
   for (let i = 0; i < n; i++) {
     const y = xy[2 * i + 1];
@@ -53,12 +91,13 @@ function sweepOrder(xy: Float64Array, n: number): Uint32Array {
     if (y > hi) hi = y;
   }
   const scale = hi > lo ? 4294967295 / (hi - lo) : 0;
-  const ids = new Uint32Array(n), keys = new Uint32Array(n);
+  const room = scratch.length >= 3 * n ? new Uint32Array(scratch.buffer, scratch.byteOffset, 3 * n) : new Uint32Array(3 * n);
+  const ids = new Uint32Array(n), keys = room.subarray(0, n);
   for (let i = 0; i < n; i++) {
     ids[i] = i;
     keys[i] = Math.min(4294967295, Math.floor((xy[2 * i + 1] - lo) * scale));
   }
-  const sorted = n < 2 ? { ids, keys } : radixSort(ids, keys);
+  const sorted = n < 2 ? { ids, keys } : radixSort(ids, keys, room.subarray(n, 2 * n), room.subarray(2 * n, 3 * n));
   const order = sorted.ids, k = sorted.keys;
   const byYX = (a: number, b: number): number => xy[2 * a + 1] - xy[2 * b + 1] || xy[2 * a] - xy[2 * b];
   for (let i = 0; i < n;) {
@@ -156,21 +195,20 @@ class Sweep implements EventTies {
   private edgeHalf: Int32Array = new Int32Array(1024);
   private edgeCount = 0;
 
-  constructor(xy: Float64Array, n: number) {
+  constructor(xy: Float64Array, n: number, store: TriangleStore) {
     this.siteXY = xy;
     this.xy = xy;
     this.n = n;
-    this.beach = new BeachLine(Math.max(2, 2 * n));
-    // n sites make T triangles and h hull edges with T + h = 2n - 2: all the room the store needs.
-    this.store = new TriangleStore(xy, Math.max(1, 2 * n - 2));
+    this.beach = new BeachLine(Math.max(2, Math.min(2 * n, 1024)));
+    this.store = store;
     // Room for the usual 3n edge records, grown if ever exceeded.
     this.edgeHalf = new Int32Array(3 * n + 1);
     this.queue = new EventQueue(this, 1024);
   }
 
-  run(): void {
+  run(order: Uint32Array): void {
     const n = this.n;
-    const order = sweepOrder(this.siteXY, n), site = (this.siteOfRank = new Int32Array(order.buffer, order.byteOffset, n));
+    const site = (this.siteOfRank = new Int32Array(order.buffer, order.byteOffset, n));
     const xy = (this.xy = this.store.xy = new Float64Array(2 * n));
     let lo = Infinity, hi = -Infinity;
     for (let r = 0; r < n; r++) {
@@ -395,7 +433,8 @@ class Sweep implements EventTies {
     store.reserve(T + hull);
     const v = store.vert, tw = store.twin;
     // Ghost g of hull half-edge h (u -> v) is (v, u, GHOST); outerFrom[v] = g.
-    const outerFrom = new Int32Array(this.n).fill(-1);
+    // The sweep's coordinates are done with: their memory, already touched, holds this table.
+    const outerFrom = new Int32Array(this.xy.buffer, this.xy.byteOffset, this.n).fill(-1);
     let g = T;
     for (let r = 0; r < this.edgeCount; r++) {
       const h = this.edgeHalf[r];
