@@ -181,6 +181,13 @@ class Sweep implements EventTies {
   private hintSite: Int32Array = new Int32Array(0);
   private hintX0 = 0;
   private hintScale = 0;
+  /**
+   * Walks that found their arc since the tree was last searched: past twice
+   * the arcs on the line, they have paid for building the tree again, and
+   * the sweep stops keeping it (see BeachLine). Rebuilds then cost O(1) per
+   * site amortised, and a search stays logarithmic whenever walks fail.
+   */
+  private walks = 0;
   /** Events ever made. */
   private created = 0;
   private readonly queue: EventQueue;
@@ -281,9 +288,14 @@ class Sweep implements EventTies {
     const b = this.beach, xy = this.xy;
     const qx = xy[2 * s], qy = xy[2 * s + 1];
     const strip = this.stripOf(qx);
-    const h = this.hintArc[strip];
-    let x = h >= 0 && b.site[h] === this.hintSite[strip] ? b.walk(h, qx, qy, xy, 32) : -1;
-    if (x < 0) x = b.locate(qx, qy, xy);
+    let x = this.walkFrom(strip, qx, qy);
+    // A stale hint (its arc has vanished since): a neighbouring strip's will do.
+    if (x === -2 && strip > 0) x = this.walkFrom(strip - 1, qx, qy);
+    if (x === -2 && strip + 1 < this.hintArc.length) x = this.walkFrom(strip + 1, qx, qy);
+    if (x < 0) {
+      x = b.locate(qx, qy, xy);
+      this.walks = 0;
+    } else if (b.hasTree && ++this.walks > 2 * b.live) b.dropTree();
     this.cancel(x);
     // x becomes x, s, x' : both new breakpoints trace the one edge between x's site and s.
     const e = this.newEdge();
@@ -324,6 +336,12 @@ class Sweep implements EventTies {
     this.cancel(right);
     this.check(left);
     this.check(right);
+  }
+
+  /** The arc above (qx, qy) found by walking from the hint of `strip`: -1 after too long a walk, -2 if the hint is stale. */
+  private walkFrom(strip: number, qx: number, qy: number): number {
+    const b = this.beach, h = this.hintArc[strip];
+    return h >= 0 && b.site[h] === this.hintSite[strip] ? b.walk(h, qx, qy, this.xy, 32) : -2;
   }
 
   /** The hint strip of x (any number, even NaN, gives a valid strip). */
