@@ -198,9 +198,22 @@ class Sweep implements EventTies {
    */
   private store: TriangleStore;
   triCount = 0;
-  // Edge records: one per Delaunay edge traced by breakpoints, holding the first half-edge that closed it.
+  /**
+   * Edge records: one per Delaunay edge traced by breakpoints, holding the
+   * first half-edge that closed it (-1: none yet, -2: both sides closed).
+   * A record both of whose sides are closed is done, and its slot is
+   * reused, so the slots in use stay about as few as the breakpoints
+   * (instead of some 3n ever made); edgeStamp keeps each record's creation
+   * number, the order in which closeHull() lays out the ghosts.
+   */
   private edgeHalf: Int32Array = new Int32Array(1024);
+  private edgeStamp: Int32Array = new Int32Array(1024);
+  private edgeFree: Int32Array = new Int32Array(1024);
+  private edgeFreeCount = 0;
+  /** Slots ever used. */
   private edgeCount = 0;
+  /** Records ever made. */
+  private edgesMade = 0;
 
   constructor(xy: Float64Array, n: number, store: TriangleStore) {
     this.siteXY = xy;
@@ -208,8 +221,6 @@ class Sweep implements EventTies {
     this.n = n;
     this.beach = new BeachLine(Math.max(2, Math.min(2 * n, 1024)));
     this.store = store;
-    // Room for the usual 3n edge records, grown if ever exceeded.
-    this.edgeHalf = new Int32Array(3 * n + 1);
     this.queue = new EventQueue(this, 1024);
   }
 
@@ -266,9 +277,19 @@ class Sweep implements EventTies {
   }
 
   private newEdge(): number {
-    this.edgeHalf = grownI32(this.edgeHalf, this.edgeCount + 1);
-    this.edgeHalf[this.edgeCount] = -1;
-    return this.edgeCount++;
+    let r: number;
+    if (this.edgeFreeCount > 0) r = this.edgeFree[--this.edgeFreeCount];
+    else {
+      r = this.edgeCount++;
+      if (r === this.edgeHalf.length) {
+        this.edgeHalf = grownI32(this.edgeHalf, r + 1);
+        this.edgeStamp = grownI32(this.edgeStamp, r + 1);
+        this.edgeFree = grownI32(this.edgeFree, r + 1);
+      }
+    }
+    this.edgeHalf[r] = -1;
+    this.edgeStamp[r] = this.edgesMade++;
+    return r;
   }
 
   /** A breakpoint of edge record r ends at half-edge h: the first end is kept, the second is its twin. */
@@ -281,6 +302,7 @@ class Sweep implements EventTies {
       tw[h] = other;
       tw[other] = h;
       this.edgeHalf[r] = -2;
+      this.edgeFree[this.edgeFreeCount++] = r;
     }
   }
 
@@ -439,7 +461,7 @@ class Sweep implements EventTies {
 
   /**
    * Adds one ghost per edge record closed on one side only (a hull edge),
-   * in record order, each ghost's outer side linked to the next one along
+   * in order of the records' creation, each ghost's outer side linked to the next one along
    * the hull: the layout Triangulation.fromMesh makes of the mesh the sweep
    * used to emit, so that the diagram stays the same.
    */
@@ -447,6 +469,11 @@ class Sweep implements EventTies {
     const T = this.triCount, len = 3 * T;
     let hull = 0;
     for (let r = 0; r < this.edgeCount; r++) if (this.edgeHalf[r] >= 0) hull++;
+    const open = new Uint32Array(hull), made = new Uint32Array(hull);
+    for (let r = 0, k = 0; r < this.edgeCount; r++) {
+      if (this.edgeHalf[r] >= 0) { open[k] = r; made[k] = this.edgeStamp[r]; k++; }
+    }
+    const records = hull > 1 ? radixSort(open, made).ids : open;
     const store = this.store;
     store.reserve(T + hull);
     const v = store.vert, tw = store.twin;
@@ -454,9 +481,8 @@ class Sweep implements EventTies {
     // The sweep's coordinates are done with: their memory, already touched, holds this table.
     const outerFrom = new Int32Array(this.xy.buffer, this.xy.byteOffset, this.n).fill(-1);
     let g = T;
-    for (let r = 0; r < this.edgeCount; r++) {
-      const h = this.edgeHalf[r];
-      if (h < 0) continue;
+    for (let k = 0; k < hull; k++) {
+      const h = this.edgeHalf[records[k]];
       const to = v[h % 3 === 2 ? h - 2 : h + 1];
       v[3 * g] = to;
       v[3 * g + 1] = v[h];
