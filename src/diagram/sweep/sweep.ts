@@ -64,7 +64,7 @@ function sweepOwned(xy: Float64Array, n: number, siteOfInput: Int32Array, order:
   sweep.run(order);
   const sites = { xy, count: n, siteOfInput, curveOrder: new Uint32Array(0) };
   if (sweep.triCount === 0) return Triangulation.fromMesh(collinearMesh(xy), siteOfInput);
-  return Triangulation.fromStore(sites, sweep.closeHull(xy), sweep.triCount);
+  return Triangulation.fromStore(sites, sweep.closeHull(), sweep.triCount, { rankXY: sweep.rankXY, siteOfRank: sweep.siteOfRank });
 }
 
 /** The mesh of sites without a triangle (one or collinear): its vertices only, the rest is fromMesh's. */
@@ -129,9 +129,14 @@ class Sweep implements EventTies {
   /**
    * The coordinates in sweep order: the sweep numbers sites by rank in that
    * order, so that the arcs of the beach line, all sites near the sweep line,
-   * sit together in memory. Ranks become site numbers again in closeHull().
+   * sit together in memory. The triangulation keeps them (with siteOfRank),
+   * as the incremental route keeps its own ranks: the diagram passes then
+   * read triangles whose corners are near each other in memory too, where
+   * site numbers (input order) would scatter them.
    */
   private xy: Float64Array;
+  /** The coordinates by rank, for the triangulation (after run()). */
+  get rankXY(): Float64Array { return this.xy; }
   siteOfRank: Int32Array = new Int32Array(0);
   private readonly n: number;
   private readonly beach: BeachLine;
@@ -465,7 +470,7 @@ class Sweep implements EventTies {
    * the hull: the layout Triangulation.fromMesh makes of the mesh the sweep
    * used to emit, so that the diagram stays the same.
    */
-  closeHull(siteXY: Float64Array): TriangleStore {
+  closeHull(): TriangleStore {
     const T = this.triCount, len = 3 * T;
     let hull = 0;
     for (let r = 0; r < this.edgeCount; r++) if (this.edgeHalf[r] >= 0) hull++;
@@ -477,9 +482,9 @@ class Sweep implements EventTies {
     const store = this.store;
     store.reserve(T + hull);
     const v = store.vert, tw = store.twin;
-    // Ghost g of hull half-edge h (u -> v) is (v, u, GHOST); outerFrom[v] = g.
-    // The sweep's coordinates are done with: their memory, already touched, holds this table.
-    const outerFrom = new Int32Array(this.xy.buffer, this.xy.byteOffset, this.n).fill(-1);
+    // Ghost g of hull half-edge h (u -> v) is (v, u, GHOST); outerFrom[v] = g + 1 (0: none). Only
+    // hull vertices are written: the rest of the fresh, zero table is never touched.
+    const outerFrom = new Int32Array(this.n);
     let g = T;
     for (let k = 0; k < hull; k++) {
       const h = this.edgeHalf[records[k]];
@@ -489,7 +494,7 @@ class Sweep implements EventTies {
       v[3 * g + 2] = GHOST;
       tw[3 * g] = h;
       tw[h] = 3 * g;
-      outerFrom[to] = g;
+      outerFrom[to] = g + 1;
       g++;
     }
     for (let e = 0; e < len; e++) {
@@ -497,15 +502,11 @@ class Sweep implements EventTies {
     }
     for (let k = T; k < g; k++) {
       // The outer side of ghost k runs on from its vertex 1, where the next ghost's starts.
-      const after = outerFrom[v[3 * k + 1]];
+      const after = outerFrom[v[3 * k + 1]] - 1;
       if (after < 0) throw new Error('ambit: the sweep left a Delaunay edge unmatched; this is a bug');
       tw[3 * k + 1] = 3 * after + 2;
       tw[3 * after + 2] = 3 * k + 1;
     }
-    // Ranks back to site numbers: the triangulation keeps the layout the mesh route gave it.
-    const site = this.siteOfRank;
-    for (let e = 0; e < 3 * g; e++) if (v[e] >= 0) v[e] = site[v[e]];
-    store.xy = siteXY;
     store.count = g;
     store.last = 0;
     return store;
