@@ -45,11 +45,17 @@ export function hilbertIndex(x: number, y: number): number {
   return ((spreadBits(i1) << 1) | spreadBits(i0)) >>> 0;
 }
 
-/** Stable LSD radix sort of `ids` by 32-bit `keys`, in two 16-bit passes; sorts both. */
-export function radixSort(ids: Uint32Array, keys: Uint32Array): { ids: Uint32Array; keys: Uint32Array } {
+/**
+ * Stable LSD radix sort of `ids` by 32-bit `keys`, in two 16-bit passes;
+ * sorts both. Optional scratch arrays (n entries each) save allocating the
+ * pass buffers; the two passes leave the result in `ids` and `keys`.
+ */
+export function radixSort(
+  ids: Uint32Array, keys: Uint32Array, scratchIds?: Uint32Array, scratchKeys?: Uint32Array,
+): { ids: Uint32Array; keys: Uint32Array } {
   const n = ids.length;
   let srcIds: Uint32Array = ids, srcKeys: Uint32Array = keys;
-  let dstIds: Uint32Array = new Uint32Array(n), dstKeys: Uint32Array = new Uint32Array(n);
+  let dstIds: Uint32Array = scratchIds ?? new Uint32Array(n), dstKeys: Uint32Array = scratchKeys ?? new Uint32Array(n);
   const counts = new Uint32Array(65537);
   for (let shift = 0; shift < 32; shift += 16) {
     counts.fill(0);

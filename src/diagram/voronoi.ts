@@ -1,11 +1,10 @@
 import { InputError } from '../core/errors.js';
 import { carriesWeights, readPoints, type PointInput } from '../core/input.js';
-import { mergeDuplicates } from '../core/dedupe.js';
 import { SiteLocator } from '../query/site-locator.js';
 import { Triangulation, triangulate } from '../triangulate/triangulation.js';
 import { ClippedCells } from './cells.js';
 import { clippedVoronoi } from './dual.js';
-import { sweepTriangulation } from './sweep/sweep.js';
+import { sweepPoints, sweepTriangulation } from './sweep/sweep.js';
 import { paddedBounds, readClipRegion, type ClipRegion } from './region.js';
 import { MetricVoronoiDiagram } from './metric/diagram.js';
 import { readMetric, type Metric } from './metric/options.js';
@@ -113,10 +112,7 @@ export function voronoi(input: PointInput | Triangulation, options: VoronoiOptio
   let tri: Triangulation;
   if (method === 'dual') tri = input instanceof Triangulation ? input : triangulate(input, { weights: options.weights });
   else if (input instanceof Triangulation) tri = sweepTriangulation(input.siteXY, input.siteCount, input.siteOfInput);
-  else {
-    const sites = mergeDuplicates(readPoints(input));
-    tri = sweepTriangulation(sites.xy, sites.count, sites.siteOfInput);
-  }
+  else tri = sweepPoints(readPoints(input));
   const region = options.clip === undefined ? paddedBounds(tri.rankCoordinates(), tri.siteCount) : readClipRegion(options.clip);
   return new VoronoiDiagram(tri, region);
 }

@@ -156,11 +156,18 @@ export class Triangulation {
 
   /**
    * @internal Wraps a store filled elsewhere (Fortune's sweep): real
-   * triangles 0..real-1 first, then one ghost per hull edge, over site
-   * numbers (store.xy is sites.xy), as fromMesh lays them out.
+   * triangles 0..real-1 first, then one ghost per hull edge, as fromMesh
+   * lays them out. Over site numbers (store.xy is sites.xy), or over the
+   * ranks given (store.xy is ranks.rankXY, siteOfRank their sites).
    */
-  static fromStore(sites: SiteSet, store: TriangleStore, real: number): Triangulation {
+  static fromStore(
+    sites: SiteSet, store: TriangleStore, real: number, ranks?: { rankXY: Float64Array; siteOfRank: Int32Array },
+  ): Triangulation {
     const tri = new Triangulation(sites, null);
+    if (ranks) {
+      tri.rankXY = ranks.rankXY;
+      tri.siteOfRank = ranks.siteOfRank;
+    }
     tri.store = store;
     tri.dimension = 2;
     tri.real = real;

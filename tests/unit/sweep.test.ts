@@ -140,6 +140,21 @@ describe("voronoi(..., { method: 'sweep' })", () => {
     }
   });
 
+  it('spread-out sites and a crowded column (the beach line tree dropped and built again): the same diagram as the dual route', () => {
+    let state = 777;
+    const rnd = () => (state = (state * 16807) % 2147483647) / 2147483647;
+    const pts: number[] = [];
+    for (let i = 0; i < 20000; i++) {
+      const y = rnd();
+      // A third of the sites in a column 1e-5 wide: walks along the line fail there, elsewhere they serve.
+      pts.push(rnd() < 0.3 ? 0.25 + rnd() * 1e-5 : rnd(), y);
+    }
+    const d = voronoi(pts, { method: 'sweep' }), ref = voronoi(pts);
+    expect(d.triangulation.triangleCount).toBe(ref.triangulation.triangleCount);
+    expect(checkMesh(d.triangulation.toMesh(), { delaunay: 'local' }).problems).toEqual([]);
+    expect(diagramDifferences(d, ref).slice(0, 5)).toEqual([]);
+  });
+
   it('offset by 1e7: the same diagram as the dual route', () => {
     const pts: number[] = [];
     for (let i = 0; i < 40; i++) pts.push(1e7 + ((i * 37) % 23) * 0.25, 1e7 + ((i * 11) % 17) * 0.125);

@@ -8,30 +8,44 @@ import { breakpointSide } from './exact-keys.js';
  * computed from the neighbours (exact, see exact-keys.ts). Priorities come
  * from a fixed-seed generator, so the shape, like everything else, depends
  * only on the input.
+ *
+ * The tree is kept only while searches need it. The sweep finds most arcs
+ * by walking the list from a nearby arc (walk()); for spread-out sites it
+ * never needs locate(), and keeping a tree nobody searches would cost a
+ * rotation or two on every insertion and removal. So locate() builds the
+ * tree from the list when there is none (linear, as the Cartesian tree of
+ * the priorities: a treap again, the same one when priorities differ), and the
+ * owner drops it (dropTree) once walks have served long enough to pay for
+ * that build. Searches give the same arc either way.
  */
 export class BeachLine {
   /** Site of each arc. */
-  readonly site: Int32Array;
+  site: Int32Array;
   /** Neighbouring arcs (-1 at the ends). */
-  readonly prev: Int32Array;
-  readonly next: Int32Array;
+  prev: Int32Array;
+  next: Int32Array;
   /** Per arc, the Delaunay edge record traced by the breakpoint on its right (-1: none). */
-  readonly rightEdge: Int32Array;
+  rightEdge: Int32Array;
   /** Per arc, the pending circle event in which it vanishes (-1: none). */
-  readonly event: Int32Array;
-  private readonly left: Int32Array;
-  private readonly right: Int32Array;
-  private readonly parent: Int32Array;
-  private readonly prio: Uint32Array;
+  event: Int32Array;
+  private left: Int32Array;
+  private right: Int32Array;
+  private parent: Int32Array;
+  private prio: Uint32Array;
   root = -1;
+  /** Whether the tree (left, right, parent, root) is kept up to date. */
+  private treeKept = true;
+  /** The leftmost arc (-1: none). */
+  private head = -1;
   count = 0;
   /**
    * Arcs removed, for reuse: the live arcs (about the square root of the
    * sites for spread-out input) then keep to a few small ranges of ids that
    * stay in cache, instead of drifting across arrays sized for every arc
-   * ever made. Ids are never compared, so reuse changes no decision.
+   * ever made. Ids are never compared, so reuse changes no decision. For
+   * the same reason the arrays start small and grow on demand.
    */
-  private readonly free: Int32Array;
+  private free: Int32Array;
   private freeCount = 0;
   private seed = 0x9e3779b9;
 
@@ -48,7 +62,24 @@ export class BeachLine {
     this.free = new Int32Array(capacity);
   }
 
+  /** Doubles every per-arc array. */
+  private grow(): void {
+    const cap = 2 * this.site.length;
+    const g = <T extends Int32Array | Uint32Array>(a: T, b: T): T => { b.set(a); return b; };
+    this.site = g(this.site, new Int32Array(cap));
+    this.prev = g(this.prev, new Int32Array(cap));
+    this.next = g(this.next, new Int32Array(cap));
+    this.rightEdge = g(this.rightEdge, new Int32Array(cap));
+    this.event = g(this.event, new Int32Array(cap));
+    this.left = g(this.left, new Int32Array(cap));
+    this.right = g(this.right, new Int32Array(cap));
+    this.parent = g(this.parent, new Int32Array(cap));
+    this.prio = g(this.prio, new Uint32Array(cap));
+    this.free = g(this.free, new Int32Array(cap));
+  }
+
   private newArc(site: number): number {
+    if (this.freeCount === 0 && this.count === this.site.length) this.grow();
     const z = this.freeCount > 0 ? this.free[--this.freeCount] : this.count++;
     // xorshift32: cheap, fixed seed, good enough to balance a treap.
     let s = this.seed;
@@ -67,7 +98,39 @@ export class BeachLine {
   first(site: number): number {
     const z = this.newArc(site);
     this.root = z;
+    this.head = z;
+    this.treeKept = true;
     return z;
+  }
+
+  /** Arcs on the line. */
+  get live(): number { return this.count - this.freeCount; }
+
+  /** Whether the tree is kept (see the class comment). */
+  get hasTree(): boolean { return this.treeKept; }
+
+  /** Stops keeping the tree; locate() builds it again when next needed. */
+  dropTree(): void { this.treeKept = false; }
+
+  /**
+   * The tree of the arcs in list order with min-heap priorities (a
+   * Cartesian tree), built with a stack of the rightmost path in one pass.
+   */
+  private buildTree(): void {
+    const L = this.left, R = this.right, P = this.parent, prio = this.prio, next = this.next;
+    const stack = new Int32Array(this.live);
+    let sp = 0;
+    for (let z = this.head; z >= 0; z = next[z]) {
+      let last = -1;
+      while (sp > 0 && prio[stack[sp - 1]] > prio[z]) last = stack[--sp];
+      L[z] = last;
+      R[z] = -1;
+      if (last >= 0) P[last] = z;
+      if (sp > 0) { R[stack[sp - 1]] = z; P[z] = stack[sp - 1]; } else P[z] = -1;
+      stack[sp++] = z;
+    }
+    this.root = sp > 0 ? stack[0] : -1;
+    this.treeKept = true;
   }
 
   /** A new arc of `site` right after arc x. */
@@ -78,6 +141,7 @@ export class BeachLine {
     this.next[z] = s;
     this.next[x] = z;
     if (s >= 0) this.prev[s] = z;
+    if (!this.treeKept) return z;
     // In the tree, z becomes the leftmost node of x's right subtree: x's
     // right child if it has none, else the left child of x's old successor.
     if (this.right[x] < 0) {
@@ -93,6 +157,17 @@ export class BeachLine {
 
   /** Removes arc z from the line. */
   remove(z: number): void {
+    if (this.treeKept) this.removeFromTree(z);
+    const a = this.prev[z], b = this.next[z];
+    if (z === this.head) this.head = b;
+    if (a >= 0) this.next[a] = b;
+    if (b >= 0) this.prev[b] = a;
+    // No site: a hint still naming this arc is seen to be stale (see walk()).
+    this.site[z] = -1;
+    this.free[this.freeCount++] = z;
+  }
+
+  private removeFromTree(z: number): void {
     const L = this.left, R = this.right;
     // Rotate z down until it is a leaf, keeping the heap order of the others.
     for (;;) {
@@ -104,12 +179,6 @@ export class BeachLine {
     if (p < 0) this.root = -1;
     else if (L[p] === z) L[p] = -1;
     else R[p] = -1;
-    const a = this.prev[z], b = this.next[z];
-    if (a >= 0) this.next[a] = b;
-    if (b >= 0) this.prev[b] = a;
-    // No site: a hint still naming this arc is seen to be stale (see walk()).
-    this.site[z] = -1;
-    this.free[this.freeCount++] = z;
   }
 
   private rotateUp(z: number): void {
@@ -173,6 +242,7 @@ export class BeachLine {
    * the sweep then closes the empty arc left of it with a circle event).
    */
   locate(qx: number, qy: number, xy: Float64Array): number {
+    if (!this.treeKept) this.buildTree();
     const site = this.site, prev = this.prev, next = this.next, L = this.left, R = this.right;
     let z = this.root;
     for (;;) {

@@ -1,8 +1,6 @@
 export interface EventTies {
   /** The order of two events whose keys are too close for the floating filter. */
   compareEvents(i: number, j: number): number;
-  /** Told of each event that leaves the heap without being popped. */
-  release(id: number): void;
 }
 
 /**
@@ -12,11 +10,18 @@ export interface EventTies {
  * cache; only keys within their joint error go to the exact order. The
  * order is total (ties end at creation order), so any correct heap pops the
  * same sequence: the shape of this one changes nothing in the result.
+ *
+ * The heap knows where each event sits, so that a cancelled event (most
+ * are false alarms) leaves at once: a removal is cheap where most items
+ * are, near the bottom, while a cancelled item left in place would cost a
+ * whole pop later and make every other operation a level deeper.
  */
 export class EventQueue {
   private ids: Int32Array;
   /** key, error bound per slot. */
   private keys: Float64Array;
+  /** Heap slot of each event id, -1 when not in the heap. */
+  private at: Int32Array;
   length = 0;
   private readonly ties: EventTies;
 
@@ -24,10 +29,12 @@ export class EventQueue {
     this.ties = ties;
     this.ids = new Int32Array(Math.max(16, capacity));
     this.keys = new Float64Array(2 * this.ids.length);
+    this.at = new Int32Array(this.ids.length).fill(-1);
   }
 
   /** The first event (the queue must not be empty). */
   peek(): number { return this.ids[0]; }
+
 
   /** Whether event a (key ka +- ea) comes before event b. */
   private before(a: number, ka: number, ea: number, b: number, kb: number, eb: number): boolean {
@@ -39,15 +46,48 @@ export class EventQueue {
 
   push(id: number, key: number, err: number): void {
     if (this.length === this.ids.length) this.grow();
+    if (id >= this.at.length) this.growIds(id + 1);
     this.place(this.length++, id, key, err);
   }
 
+  /**
+   * Floyd's bottom-up removal: the hole left at the root goes down to a leaf
+   * along the smaller children (one comparison per level), then the last
+   * item rises from there, usually a step or none since it came from the
+   * bottom. About half the comparisons of sifting the last item down.
+   */
   pop(): number {
     const ids = this.ids, keys = this.keys;
     const top = ids[0];
-    const last = --this.length;
-    if (last > 0) this.siftDown(0, ids[last], keys[2 * last], keys[2 * last + 1]);
+    this.at[top] = -1;
+    const n = --this.length;
+    if (n === 0) return top;
+    let pos = 0;
+    for (;;) {
+      let c = 2 * pos + 1;
+      if (c >= n) break;
+      const r = c + 1;
+      if (r < n && this.before(ids[r], keys[2 * r], keys[2 * r + 1], ids[c], keys[2 * c], keys[2 * c + 1])) c = r;
+      this.copy(pos, c);
+      pos = c;
+    }
+    this.place(pos, ids[n], keys[2 * n], keys[2 * n + 1]);
     return top;
+  }
+
+  /** Takes event id (in the heap) out: the last item fills its slot, going up or down from there. */
+  remove(id: number): void {
+    const ids = this.ids, keys = this.keys;
+    const pos = this.at[id];
+    this.at[id] = -1;
+    const n = --this.length;
+    if (pos === n) return;
+    const m = ids[n], km = keys[2 * n], em = keys[2 * n + 1];
+    if (pos > 0) {
+      const up = (pos - 1) >> 1;
+      if (this.before(m, km, em, ids[up], keys[2 * up], keys[2 * up + 1])) { this.place(pos, m, km, em); return; }
+    }
+    this.siftDown(pos, m, km, em);
   }
 
   /** Puts the item (id, key, err) into the hole at pos, or above it, moving larger parents down. */
@@ -60,20 +100,6 @@ export class EventQueue {
       pos = up;
     }
     this.put(pos, id, key, err);
-  }
-
-  /** Drops the events not marked live, then restores the heap order (bottom-up, linear). */
-  keepLive(live: Uint8Array, owner: EventTies): void {
-    const ids = this.ids, keys = this.keys;
-    let m = 0;
-    for (let i = 0; i < this.length; i++) {
-      const id = ids[i];
-      if (live[id] !== 1) { owner.release(id); continue; }
-      this.copy(m, i);
-      m++;
-    }
-    this.length = m;
-    for (let i = (m >> 1) - 1; i >= 0; i--) this.siftDown(i, ids[i], keys[2 * i], keys[2 * i + 1]);
   }
 
   /** Places the item (id, key, err) at pos or below, moving smaller children up. */
@@ -93,7 +119,9 @@ export class EventQueue {
   /** Slot `to` takes the item in slot `from`. */
   private copy(to: number, from: number): void {
     const ids = this.ids, keys = this.keys;
-    ids[to] = ids[from];
+    const id = ids[from];
+    ids[to] = id;
+    this.at[id] = to;
     keys[2 * to] = keys[2 * from];
     keys[2 * to + 1] = keys[2 * from + 1];
   }
@@ -101,6 +129,7 @@ export class EventQueue {
   private put(pos: number, id: number, key: number, err: number): void {
     const ids = this.ids, keys = this.keys;
     ids[pos] = id;
+    this.at[id] = pos;
     keys[2 * pos] = key;
     keys[2 * pos + 1] = err;
   }
@@ -112,5 +141,11 @@ export class EventQueue {
     keys.set(this.keys);
     this.ids = ids;
     this.keys = keys;
+  }
+
+  private growIds(need: number): void {
+    const at = new Int32Array(Math.max(need, 2 * this.at.length)).fill(-1);
+    at.set(this.at);
+    this.at = at;
   }
 }

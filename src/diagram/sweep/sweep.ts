@@ -1,5 +1,6 @@
 import { inCircle } from '../../core/predicates.js';
 import { radixSort } from '../../core/hilbert.js';
+import { mergeDuplicates } from '../../core/dedupe.js';
 import { HalfEdgeMesh } from '../../mesh/mesh.js';
 import { Triangulation } from '../../triangulate/triangulation.js';
 import { GHOST, TriangleStore } from '../../triangulate/store.js';
@@ -24,11 +25,46 @@ import { circleEventKey, circleVersusCircleExact, circleVersusSiteExact } from '
  * y) starts the beach line as vertical strips, in x order.
  */
 export function sweepTriangulation(xy: Float64Array, n: number, siteOfInput: Int32Array): Triangulation {
-  const sweep = new Sweep(xy, n);
-  sweep.run();
-  const sites = { xy: xy.slice(0, 2 * n), count: n, siteOfInput, curveOrder: new Uint32Array(0) };
-  if (sweep.triCount === 0) return Triangulation.fromMesh(collinearMesh(sites.xy), siteOfInput);
-  return Triangulation.fromStore(sites, sweep.closeHull(sites.xy), sweep.triCount);
+  const store = newStore(xy, n);
+  return sweepOwned(xy.slice(0, 2 * n), n, siteOfInput, sweepOrder(xy, n, store.vert), store);
+}
+
+/**
+ * The sweep of points read from the input (readPoints: a fresh array, which
+ * the triangulation may keep). The sweep's own sort by (y, x) puts equal
+ * points side by side, so it also tells whether there are any: without
+ * them (the usual case) the sites are the points in input order, exactly
+ * what mergeDuplicates would return, and its sort along a curve, which only
+ * the incremental route needs, is skipped.
+ */
+export function sweepPoints(points: Float64Array): Triangulation {
+  const n = points.length >> 1;
+  const store = newStore(points, n);
+  const order = sweepOrder(points, n, store.vert);
+  for (let k = 1; k < n; k++) {
+    const a = 2 * order[k - 1], b = 2 * order[k];
+    if (points[a] === points[b] && points[a + 1] === points[b + 1]) {
+      const sites = mergeDuplicates(points), m = sites.count, fewer = newStore(sites.xy, m);
+      return sweepOwned(sites.xy, m, sites.siteOfInput, sweepOrder(sites.xy, m, fewer.vert), fewer);
+    }
+  }
+  const siteOfInput = new Int32Array(n);
+  for (let i = 0; i < n; i++) siteOfInput[i] = i;
+  return sweepOwned(points, n, siteOfInput, order, store);
+}
+
+/** The store for the sweep of n sites: T triangles and h hull edges with T + h = 2n - 2, all the room it needs. */
+function newStore(xy: Float64Array, n: number): TriangleStore {
+  return new TriangleStore(xy, Math.max(1, 2 * n - 2));
+}
+
+/** The sweep over xy (2n numbers, kept by the triangulation), sites in `order` (sweepOrder), into `store` (newStore). */
+function sweepOwned(xy: Float64Array, n: number, siteOfInput: Int32Array, order: Uint32Array, store: TriangleStore): Triangulation {
+  const sweep = new Sweep(xy, n, store);
+  sweep.run(order);
+  const sites = { xy, count: n, siteOfInput, curveOrder: new Uint32Array(0) };
+  if (sweep.triCount === 0) return Triangulation.fromMesh(collinearMesh(xy), siteOfInput);
+  return Triangulation.fromStore(sites, sweep.closeHull(), sweep.triCount, { rankXY: sweep.rankXY, siteOfRank: sweep.siteOfRank });
 }
 
 /** The mesh of sites without a triangle (one or collinear): its vertices only, the rest is fromMesh's. */
@@ -44,8 +80,10 @@ function collinearMesh(vertexXY: Float64Array): HalfEdgeMesh {
  * Sites by (y, x): a radix sort on y quantized to 32 bits (rounding is
  * monotone, so the quantized order never contradicts the true one), then
  * each run of equal keys (a grid row, or close values) sorted exactly.
+ * The keys and the sort's buffers live in `scratch` (the store's triangle
+ * array, written over by the sweep later): its memory is then touched once.
  */
-function sweepOrder(xy: Float64Array, n: number): Uint32Array {
+function sweepOrder(xy: Float64Array, n: number, scratch: Int32Array): Uint32Array {
   let lo = Infinity, hi = -Infinity;
   for (let i = 0; i < n; i++) {
     const y = xy[2 * i + 1];
@@ -53,12 +91,13 @@ function sweepOrder(xy: Float64Array, n: number): Uint32Array {
     if (y > hi) hi = y;
   }
   const scale = hi > lo ? 4294967295 / (hi - lo) : 0;
-  const ids = new Uint32Array(n), keys = new Uint32Array(n);
+  const room = scratch.length >= 3 * n ? new Uint32Array(scratch.buffer, scratch.byteOffset, 3 * n) : new Uint32Array(3 * n);
+  const ids = new Uint32Array(n), keys = room.subarray(0, n);
   for (let i = 0; i < n; i++) {
     ids[i] = i;
     keys[i] = Math.min(4294967295, Math.floor((xy[2 * i + 1] - lo) * scale));
   }
-  const sorted = n < 2 ? { ids, keys } : radixSort(ids, keys);
+  const sorted = n < 2 ? { ids, keys } : radixSort(ids, keys, room.subarray(n, 2 * n), room.subarray(2 * n, 3 * n));
   const order = sorted.ids, k = sorted.keys;
   const byYX = (a: number, b: number): number => xy[2 * a + 1] - xy[2 * b + 1] || xy[2 * a] - xy[2 * b];
   for (let i = 0; i < n;) {
@@ -90,9 +129,14 @@ class Sweep implements EventTies {
   /**
    * The coordinates in sweep order: the sweep numbers sites by rank in that
    * order, so that the arcs of the beach line, all sites near the sweep line,
-   * sit together in memory. Ranks become site numbers again in closeHull().
+   * sit together in memory. The triangulation keeps them (with siteOfRank),
+   * as the incremental route keeps its own ranks: the diagram passes then
+   * read triangles whose corners are near each other in memory too, where
+   * site numbers (input order) would scatter them.
    */
   private xy: Float64Array;
+  /** The coordinates by rank, for the triangulation (after run()). */
+  get rankXY(): Float64Array { return this.xy; }
   siteOfRank: Int32Array = new Int32Array(0);
   private readonly n: number;
   private readonly beach: BeachLine;
@@ -107,7 +151,6 @@ class Sweep implements EventTies {
   private evArc: Int32Array = new Int32Array(1024);
   private evSites: Int32Array = new Int32Array(3 * 1024);
   private evKey: Float64Array = new Float64Array(4 * 1024);
-  private evLive: Uint8Array = new Uint8Array(1024);
   /**
    * Events found on one circle by a comparison share a class (union-find,
    * parent links). Cocircular sites make many such events (a ring: all of
@@ -143,11 +186,16 @@ class Sweep implements EventTies {
   private hintSite: Int32Array = new Int32Array(0);
   private hintX0 = 0;
   private hintScale = 0;
+  /**
+   * Walks that found their arc since the tree was last searched: past twice
+   * the arcs on the line, they have paid for building the tree again, and
+   * the sweep stops keeping it (see BeachLine). Rebuilds then cost O(1) per
+   * site amortised, and a search stays logarithmic whenever walks fail.
+   */
+  private walks = 0;
   /** Events ever made. */
   private created = 0;
   private readonly queue: EventQueue;
-  /** Cancelled events still in the heap. */
-  private dead = 0;
   /**
    * Triangles, 3 ranks each, written straight into the triangulation's
    * store (half-edge 3t+j runs from corner j to corner j+1); the ghosts
@@ -155,25 +203,35 @@ class Sweep implements EventTies {
    */
   private store: TriangleStore;
   triCount = 0;
-  // Edge records: one per Delaunay edge traced by breakpoints, holding the first half-edge that closed it.
+  /**
+   * Edge records: one per Delaunay edge traced by breakpoints, holding the
+   * first half-edge that closed it (-1: none yet, -2: both sides closed).
+   * A record both of whose sides are closed is done, and its slot is
+   * reused, so the slots in use stay about as few as the breakpoints
+   * (instead of some 3n ever made); edgeStamp keeps each record's creation
+   * number, the order in which closeHull() lays out the ghosts.
+   */
   private edgeHalf: Int32Array = new Int32Array(1024);
+  private edgeStamp: Int32Array = new Int32Array(1024);
+  private edgeFree: Int32Array = new Int32Array(1024);
+  private edgeFreeCount = 0;
+  /** Slots ever used. */
   private edgeCount = 0;
+  /** Records ever made. */
+  private edgesMade = 0;
 
-  constructor(xy: Float64Array, n: number) {
+  constructor(xy: Float64Array, n: number, store: TriangleStore) {
     this.siteXY = xy;
     this.xy = xy;
     this.n = n;
-    this.beach = new BeachLine(Math.max(2, 2 * n));
-    // n sites make T triangles and h hull edges with T + h = 2n - 2: all the room the store needs.
-    this.store = new TriangleStore(xy, Math.max(1, 2 * n - 2));
-    // Room for the usual 3n edge records, grown if ever exceeded.
-    this.edgeHalf = new Int32Array(3 * n + 1);
+    this.beach = new BeachLine(Math.max(2, Math.min(2 * n, 1024)));
+    this.store = store;
     this.queue = new EventQueue(this, 1024);
   }
 
-  run(): void {
+  run(order: Uint32Array): void {
     const n = this.n;
-    const order = sweepOrder(this.siteXY, n), site = (this.siteOfRank = new Int32Array(order.buffer, order.byteOffset, n));
+    const site = (this.siteOfRank = new Int32Array(order.buffer, order.byteOffset, n));
     const xy = (this.xy = this.store.xy = new Float64Array(2 * n));
     let lo = Infinity, hi = -Infinity;
     for (let r = 0; r < n; r++) {
@@ -198,7 +256,6 @@ class Sweep implements EventTies {
     }
     for (;;) {
       const queue = this.queue;
-      while (queue.length > 0 && !this.evLive[queue.peek()]) { this.release(queue.pop()); this.dead--; }
       const top = queue.length > 0 ? queue.peek() : -1;
       if (i < n && (top < 0 || this.siteFirst(i, top))) this.siteEvent(i++);
       else if (top >= 0) {
@@ -212,7 +269,7 @@ class Sweep implements EventTies {
 
   /** Every per-event array gets exactly `cap` entries (at least its current size), so that one length governs them all. */
   private growEvents(want: number): void {
-    const cap = Math.max(want, this.evLive.length);
+    const cap = Math.max(want, this.evArc.length);
     const i32 = (a: Int32Array, per: number): Int32Array => { const b = new Int32Array(per * cap); b.set(a); return b; };
     this.evStamp = i32(this.evStamp, 1);
     this.evArc = i32(this.evArc, 1);
@@ -221,14 +278,23 @@ class Sweep implements EventTies {
     this.evClass = i32(this.evClass, 1);
     this.evRow = i32(this.evRow, 1);
     const k = new Float64Array(4 * cap); k.set(this.evKey); this.evKey = k;
-    const l = new Uint8Array(cap); l.set(this.evLive); this.evLive = l;
     const p = new Uint8Array(cap); p.set(this.evPinned); this.evPinned = p;
   }
 
   private newEdge(): number {
-    this.edgeHalf = grownI32(this.edgeHalf, this.edgeCount + 1);
-    this.edgeHalf[this.edgeCount] = -1;
-    return this.edgeCount++;
+    let r: number;
+    if (this.edgeFreeCount > 0) r = this.edgeFree[--this.edgeFreeCount];
+    else {
+      r = this.edgeCount++;
+      if (r === this.edgeHalf.length) {
+        this.edgeHalf = grownI32(this.edgeHalf, r + 1);
+        this.edgeStamp = grownI32(this.edgeStamp, r + 1);
+        this.edgeFree = grownI32(this.edgeFree, r + 1);
+      }
+    }
+    this.edgeHalf[r] = -1;
+    this.edgeStamp[r] = this.edgesMade++;
+    return r;
   }
 
   /** A breakpoint of edge record r ends at half-edge h: the first end is kept, the second is its twin. */
@@ -241,6 +307,7 @@ class Sweep implements EventTies {
       tw[h] = other;
       tw[other] = h;
       this.edgeHalf[r] = -2;
+      this.edgeFree[this.edgeFreeCount++] = r;
     }
   }
 
@@ -248,9 +315,14 @@ class Sweep implements EventTies {
     const b = this.beach, xy = this.xy;
     const qx = xy[2 * s], qy = xy[2 * s + 1];
     const strip = this.stripOf(qx);
-    const h = this.hintArc[strip];
-    let x = h >= 0 && b.site[h] === this.hintSite[strip] ? b.walk(h, qx, qy, xy, 32) : -1;
-    if (x < 0) x = b.locate(qx, qy, xy);
+    let x = this.walkFrom(strip, qx, qy);
+    // A stale hint (its arc has vanished since): a neighbouring strip's will do.
+    if (x === -2 && strip > 0) x = this.walkFrom(strip - 1, qx, qy);
+    if (x === -2 && strip + 1 < this.hintArc.length) x = this.walkFrom(strip + 1, qx, qy);
+    if (x < 0) {
+      x = b.locate(qx, qy, xy);
+      this.walks = 0;
+    } else if (b.hasTree && ++this.walks > 2 * b.live) b.dropTree();
     this.cancel(x);
     // x becomes x, s, x' : both new breakpoints trace the one edge between x's site and s.
     const e = this.newEdge();
@@ -281,7 +353,6 @@ class Sweep implements EventTies {
     const e = this.newEdge();
     this.edgeHalf[e] = 3 * t + 2;
     b.rightEdge[left] = e;
-    this.evLive[ev] = 0;
     b.event[mid] = -1;
     b.remove(mid);
     // Where the arc vanished its neighbours meet: a fresh hint for that strip.
@@ -294,6 +365,12 @@ class Sweep implements EventTies {
     this.check(right);
   }
 
+  /** The arc above (qx, qy) found by walking from the hint of `strip`: -1 after too long a walk, -2 if the hint is stale. */
+  private walkFrom(strip: number, qx: number, qy: number): number {
+    const b = this.beach, h = this.hintArc[strip];
+    return h >= 0 && b.site[h] === this.hintSite[strip] ? b.walk(h, qx, qy, this.xy, 32) : -2;
+  }
+
   /** The hint strip of x (any number, even NaN, gives a valid strip). */
   private stripOf(x: number): number {
     const f = (x - this.hintX0) * this.hintScale, last = this.hintArc.length - 1;
@@ -303,14 +380,9 @@ class Sweep implements EventTies {
   private cancel(arc: number): void {
     const ev = this.beach.event[arc];
     if (ev >= 0) {
-      this.evLive[ev] = 0;
       this.beach.event[arc] = -1;
-      // Cancelled events far ahead of the line would pile up in the heap (most false alarms
-      // are); once they are the majority, heapify the live ones again: linear, so amortised O(1).
-      if (++this.dead > 1024 && 2 * this.dead > this.queue.length) {
-        this.queue.keepLive(this.evLive, this);
-        this.dead = 0;
-      }
+      this.queue.remove(ev);
+      this.release(ev);
     }
   }
 
@@ -324,14 +396,13 @@ class Sweep implements EventTies {
     const ax = xy[2 * sa], ay = xy[2 * sa + 1], bx = xy[2 * sb], by = xy[2 * sb + 1], cx = xy[2 * sc], cy = xy[2 * sc + 1];
     // The key goes straight into the next free slot, which is taken only if the breakpoints converge.
     const reuse = this.freeCount > 0, ev = reuse ? this.freeSlots[this.freeCount - 1] : this.evCount;
-    if (ev === this.evLive.length) this.growEvents(2 * ev);
+    if (ev === this.evArc.length) this.growEvents(2 * ev);
     if (!circleEventKey(ax, ay, bx, by, cx, cy, this.evKey, 4 * ev)) return;
     if (reuse) this.freeCount--;
     else this.evCount++;
     this.evStamp[ev] = this.created++;
     this.evArc[ev] = m;
     this.evSites[3 * ev] = sa; this.evSites[3 * ev + 1] = sb; this.evSites[3 * ev + 2] = sc;
-    this.evLive[ev] = 1;
     this.evClass[ev] = ev;
     this.evRow[ev] = ev;
     b.event[m] = ev;
@@ -352,7 +423,7 @@ class Sweep implements EventTies {
   }
 
   /** A slot whose event has left the heap: free for the next event, unless a tree holds it. */
-  release(ev: number): void {
+  private release(ev: number): void {
     if (this.evPinned[ev] === 0) this.freeSlots[this.freeCount++] = ev;
   }
 
@@ -395,30 +466,35 @@ class Sweep implements EventTies {
 
   /**
    * Adds one ghost per edge record closed on one side only (a hull edge),
-   * in record order, each ghost's outer side linked to the next one along
+   * in order of the records' creation, each ghost's outer side linked to the next one along
    * the hull: the layout Triangulation.fromMesh makes of the mesh the sweep
    * used to emit, so that the diagram stays the same.
    */
-  closeHull(siteXY: Float64Array): TriangleStore {
+  closeHull(): TriangleStore {
     const T = this.triCount, len = 3 * T;
     let hull = 0;
     for (let r = 0; r < this.edgeCount; r++) if (this.edgeHalf[r] >= 0) hull++;
+    const open = new Uint32Array(hull), made = new Uint32Array(hull);
+    for (let r = 0, k = 0; r < this.edgeCount; r++) {
+      if (this.edgeHalf[r] >= 0) { open[k] = r; made[k] = this.edgeStamp[r]; k++; }
+    }
+    const records = hull > 1 ? radixSort(open, made).ids : open;
     const store = this.store;
     store.reserve(T + hull);
     const v = store.vert, tw = store.twin;
-    // Ghost g of hull half-edge h (u -> v) is (v, u, GHOST); outerFrom[v] = g.
-    const outerFrom = new Int32Array(this.n).fill(-1);
+    // Ghost g of hull half-edge h (u -> v) is (v, u, GHOST); outerFrom[v] = g + 1 (0: none). Only
+    // hull vertices are written: the rest of the fresh, zero table is never touched.
+    const outerFrom = new Int32Array(this.n);
     let g = T;
-    for (let r = 0; r < this.edgeCount; r++) {
-      const h = this.edgeHalf[r];
-      if (h < 0) continue;
+    for (let k = 0; k < hull; k++) {
+      const h = this.edgeHalf[records[k]];
       const to = v[h % 3 === 2 ? h - 2 : h + 1];
       v[3 * g] = to;
       v[3 * g + 1] = v[h];
       v[3 * g + 2] = GHOST;
       tw[3 * g] = h;
       tw[h] = 3 * g;
-      outerFrom[to] = g;
+      outerFrom[to] = g + 1;
       g++;
     }
     for (let e = 0; e < len; e++) {
@@ -426,15 +502,11 @@ class Sweep implements EventTies {
     }
     for (let k = T; k < g; k++) {
       // The outer side of ghost k runs on from its vertex 1, where the next ghost's starts.
-      const after = outerFrom[v[3 * k + 1]];
+      const after = outerFrom[v[3 * k + 1]] - 1;
       if (after < 0) throw new Error('ambit: the sweep left a Delaunay edge unmatched; this is a bug');
       tw[3 * k + 1] = 3 * after + 2;
       tw[3 * after + 2] = 3 * k + 1;
     }
-    // Ranks back to site numbers: the triangulation keeps the layout the mesh route gave it.
-    const site = this.siteOfRank;
-    for (let e = 0; e < 3 * g; e++) if (v[e] >= 0) v[e] = site[v[e]];
-    store.xy = siteXY;
     store.count = g;
     store.last = 0;
     return store;
