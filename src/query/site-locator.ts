@@ -71,30 +71,36 @@ export class SiteLocator {
   constructor(tri: Triangulation) {
     const n = tri.siteCount;
     this.siteCount = n;
-    const src = tri.siteXY.subarray(0, 2 * n);
-    const site = Int32Array.from(hilbertSort(src).ids);
-    const index = new Int32Array(n);
-    const xy = new Float64Array(2 * n);
-    const weights = tri.weights, w = weights ? new Float64Array(n) : null;
-    for (let i = 0; i < n; i++) {
-      const s = site[i];
-      index[s] = i;
-      xy[2 * i] = src[2 * s];
-      xy[2 * i + 1] = src[2 * s + 1];
-      if (w) w[i] = weights![s];
+    const ranked = rankedGraph(tri);
+    let site: Int32Array, xy: Float64Array, w: Float64Array | null, off: Int32Array, adj: Int32Array;
+    if (ranked !== null) ({ site, xy, w, off, adj } = ranked);
+    else {
+      const src = tri.siteXY.subarray(0, 2 * n);
+      site = Int32Array.from(hilbertSort(src).ids);
+      const index = new Int32Array(n);
+      xy = new Float64Array(2 * n);
+      const weights = tri.weights;
+      w = weights ? new Float64Array(n) : null;
+      for (let i = 0; i < n; i++) {
+        const s = site[i];
+        index[s] = i;
+        xy[2 * i] = src[2 * s];
+        xy[2 * i + 1] = src[2 * s + 1];
+        if (w) w[i] = weights![s];
+      }
+      const edges = tri.edges();
+      off = new Int32Array(n + 1);
+      for (let e = 0; e < edges.length; e++) off[index[edges[e]] + 1]++;
+      for (let i = 0; i < n; i++) off[i + 1] += off[i];
+      const fill = off.slice(0, n);
+      adj = new Int32Array(edges.length);
+      for (let e = 0; e < edges.length; e += 2) {
+        const a = index[edges[e]], b = index[edges[e + 1]];
+        adj[fill[a]++] = b;
+        adj[fill[b]++] = a;
+      }
     }
     this.w = w;
-    const edges = tri.edges();
-    const off = new Int32Array(n + 1);
-    for (let e = 0; e < edges.length; e++) off[index[edges[e]] + 1]++;
-    for (let i = 0; i < n; i++) off[i + 1] += off[i];
-    const fill = off.slice(0, n);
-    const adj = new Int32Array(edges.length);
-    for (let e = 0; e < edges.length; e += 2) {
-      const a = index[edges[e]], b = index[edges[e + 1]];
-      adj[fill[a]++] = b;
-      adj[fill[b]++] = a;
-    }
     this.site = site;
     this.xy = xy;
     this.off = off;
@@ -380,4 +386,38 @@ export class SiteLocator {
     }
     return ++this.stamp;
   }
+}
+
+/**
+ * The graph in the triangulation's own rank order, when it has one: its
+ * ranks already follow a space-filling curve (or the sweep's order), so
+ * they serve as internal indices as they are, and the adjacency comes
+ * straight from its half-edges; no second sort, no site-numbered edge list.
+ * Null for triangulations without a rank order (collinear sites, one read
+ * from JSON).
+ */
+function rankedGraph(tri: Triangulation): { site: Int32Array; xy: Float64Array; w: Float64Array | null; off: Int32Array; adj: Int32Array } | null {
+  const layout = tri.implicitLayout();
+  if (layout === null || layout.siteOfRank === null) return null;
+  const n = tri.siteCount, { vert, twin, real: T } = layout, H = 3 * T;
+  const off = new Int32Array(n + 1);
+  // Each edge once: from its smaller half-edge, or from its only real one on the hull.
+  for (let x = 0; x < H; x++) {
+    const y = twin[x];
+    if (y < H && y < x) continue;
+    off[vert[x] + 1]++;
+    off[vert[x % 3 === 2 ? x - 2 : x + 1] + 1]++;
+  }
+  for (let i = 0; i < n; i++) off[i + 1] += off[i];
+  const fill = off.slice(0, n), adj = new Int32Array(off[n]);
+  for (let x = 0; x < H; x++) {
+    const y = twin[x];
+    if (y < H && y < x) continue;
+    const a = vert[x], b = vert[x % 3 === 2 ? x - 2 : x + 1];
+    adj[fill[a]++] = b;
+    adj[fill[b]++] = a;
+  }
+  // Copies: the locator is a snapshot, and later insertions may rebuild the triangulation's arrays.
+  const w = tri.rankWeights();
+  return { site: layout.siteOfRank.slice(0, n), xy: layout.xy.slice(0, 2 * n), w: w === null ? null : w.slice(0, n), off, adj };
 }

@@ -490,15 +490,20 @@ export class Triangulation {
     }
     this.compact();
     const v = this.store.vert, tw = this.store.twin, len = 3 * this.real;
-    const pairs: number[] = [];
+    // Each edge once: from the half-edge with the smaller origin, or from its only real one on the hull.
+    let count = 0;
+    for (let e = 0; e < len; e++) if (tw[e] >= len || v[e] < v[nextOf(e)]) count++;
+    const out = new Int32Array(2 * count);
+    let k = 0;
     for (let e = 0; e < len; e++) {
       const a = v[e], b = v[nextOf(e)];
       if (tw[e] >= len || a < b) {
         const p = this.siteOf(a), q = this.siteOf(b);
-        pairs.push(Math.min(p, q), Math.max(p, q));
+        out[k++] = p < q ? p : q;
+        out[k++] = p < q ? q : p;
       }
     }
-    return Int32Array.from(pairs);
+    return out;
   }
 
   /**
