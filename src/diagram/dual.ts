@@ -18,6 +18,11 @@ export const MIN_SPACING = 2 ** -40;
 /** Face number of the outer face while building. */
 const OUTER = -2;
 
+/** Whether site i comes before site j by (x, y). */
+function before(xy: Float64Array, i: number, j: number): boolean {
+  return xy[2 * i] < xy[2 * j] || (xy[2 * i] === xy[2 * j] && xy[2 * i + 1] < xy[2 * j + 1]);
+}
+
 /** A growable list of points. */
 class Points {
   xy = new Float64Array(1024);
@@ -257,7 +262,13 @@ class DiagramBuilder {
     // Weights add two roundings to each squared length (the weight difference and its subtraction).
     const lengthErr = w === null ? 7 * eps : 9 * eps;
     for (let t = 0; t < T; t++) {
-      const a = vert[3 * t], b = vert[3 * t + 1], c = vert[3 * t + 2];
+      let a = vert[3 * t], b = vert[3 * t + 1], c = vert[3 * t + 2];
+      // The centre is computed relative to one corner, and its rounding depends on which: start from the corner
+      // with the least (x, y), so that every construction of this triangle, in any rotation, gets the same point.
+      if (before(sites, b, a) ? before(sites, b, c) : before(sites, c, a)) {
+        const x = a;
+        if (before(sites, b, c)) { a = b; b = c; c = x; } else { a = c; c = b; b = x; }
+      }
       const ax = sites[2 * a], ay = sites[2 * a + 1];
       const bx = sites[2 * b] - ax, by = sites[2 * b + 1] - ay;
       const cx = sites[2 * c] - ax, cy = sites[2 * c + 1] - ay;

@@ -222,3 +222,19 @@ describe('event order (exact): circle tops against sites and against each other,
     }
   });
 });
+
+describe('both routes place a near-flat triangle\'s centre alike', () => {
+  it('the same vertices to the bit, whichever corner each construction lists first (found by the sweep property)', () => {
+    // Sites 0 and 1 are 1.2e-6 apart, far from site 2: their triangle's centre is ill-conditioned, and computed
+    // from different first corners it came out 1.2e-9 apart, beyond the property's 1e-9 of the region.
+    const pts = [0.49999813735485077, -0.4999999701976776, 0.4999981224536896, -0.5, -0.5, -0.42334800958633423,
+      -0.5, -0.09227922558784485, -0.5, -0.5];
+    const sorted = (xy: Float64Array): string[] => {
+      const out: string[] = [];
+      for (let i = 0; i < xy.length; i += 2) out.push(`${xy[i]},${xy[i + 1]}`);
+      return out.sort();
+    };
+    const dual = voronoi(pts), sweep = voronoi(pts, { method: 'sweep' });
+    expect(sorted(sweep.mesh.vertexXY)).toEqual(sorted(dual.mesh.vertexXY));
+  });
+});
