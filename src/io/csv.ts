@@ -124,13 +124,7 @@ export function readCSVSites(text: string, options: CSVSiteOptions = {}): SiteTa
   });
   if (header === null) fail('empty', 'the file is empty; expected a header row and one row per site', 'line 1');
   if (count === 0) fail('empty', 'no rows after the header', 'line 2');
-  const rowLines = lines;
-  return {
-    xy: xy.slice(0, 2 * count),
-    weights: weights ? weights.slice(0, count) : null,
-    ids,
-    where: (i) => `line ${rowLines[i]}`,
-  };
+  return siteTable(xy, weights, ids, lines, count);
 }
 
 let utf8Decoder: InstanceType<typeof TextDecoder> | null = null;
@@ -226,11 +220,15 @@ function readPlainCSV(b: Uint8Array, options: CSVSiteOptions): SiteTable | null 
     count++;
   }
   if (count === 0) return null;
-  const rowLines = lines;
+  return siteTable(xy, weights, ids, lines, count);
+}
+
+/** The first `count` rows read, trimmed to size; row k came from file line lines[k]. */
+function siteTable(xy: Float64Array, weights: Float64Array | null, ids: string[] | null, lines: Int32Array, count: number): SiteTable {
   return {
     xy: xy.slice(0, 2 * count),
     weights: weights ? weights.slice(0, count) : null,
     ids,
-    where: (k) => `line ${rowLines[k]}`,
+    where: (k) => `line ${lines[k]}`,
   };
 }

@@ -4,6 +4,7 @@ import { comparePowerDistance, comparePowerDistanceExact } from '../core/power.j
 import { InputError } from '../core/errors.js';
 import { hilbertSort } from '../core/hilbert.js';
 import { checkK, checkQuery } from './query-input.js';
+import { renumbered } from '../diagram/metric/graph.js';
 import type { Triangulation } from '../triangulate/triangulation.js';
 import { boundingBox } from '../core/bounds.js';
 
@@ -75,30 +76,10 @@ export class SiteLocator {
     let site: Int32Array, xy: Float64Array, w: Float64Array | null, off: Int32Array, adj: Int32Array;
     if (ranked !== null) ({ site, xy, w, off, adj } = ranked);
     else {
-      const src = tri.siteXY.subarray(0, 2 * n);
-      site = Int32Array.from(hilbertSort(src).ids);
-      const index = new Int32Array(n);
-      xy = new Float64Array(2 * n);
+      site = Int32Array.from(hilbertSort(tri.siteXY.subarray(0, 2 * n)).ids);
+      ({ xy, off, adj } = renumbered(tri, site));
       const weights = tri.weights;
-      w = weights ? new Float64Array(n) : null;
-      for (let i = 0; i < n; i++) {
-        const s = site[i];
-        index[s] = i;
-        xy[2 * i] = src[2 * s];
-        xy[2 * i + 1] = src[2 * s + 1];
-        if (w) w[i] = weights![s];
-      }
-      const edges = tri.edges();
-      off = new Int32Array(n + 1);
-      for (let e = 0; e < edges.length; e++) off[index[edges[e]] + 1]++;
-      for (let i = 0; i < n; i++) off[i + 1] += off[i];
-      const fill = off.slice(0, n);
-      adj = new Int32Array(edges.length);
-      for (let e = 0; e < edges.length; e += 2) {
-        const a = index[edges[e]], b = index[edges[e + 1]];
-        adj[fill[a]++] = b;
-        adj[fill[b]++] = a;
-      }
+      w = weights ? Float64Array.from(site, (s) => weights[s]) : null;
     }
     this.w = w;
     this.site = site;
