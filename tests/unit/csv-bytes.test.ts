@@ -4,7 +4,9 @@ import { parseDecimal } from '../../src/io/decimal-bytes.js';
 
 const utf8 = (s: string): Uint8Array => new TextEncoder().encode(s);
 
-// A fixed generator: the same values every run.
+// Outside reference: the engine's own Number(text), which ECMAScript requires to round correctly to the nearest
+// double (as recalled from the specification, from memory).
+// A fixed generator (Marsaglia's xorshift, 2003, from memory): the same values every run.
 let state = 88172645;
 const rand = (): number => {
   state ^= state << 13; state >>>= 0; state ^= state >>> 17; state ^= state << 5; state >>>= 0;

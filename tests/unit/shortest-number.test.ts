@@ -8,7 +8,9 @@ const text = (x: number): string => {
   return String.fromCharCode(...buf.subarray(0, end));
 };
 
-// A fixed generator: the same values every run.
+// Outside reference: the engine's own String(x), which follows ECMAScript's Number::toString (the fewest digits that
+// read back to x, the nearest such when several; the rule as recalled from the specification, from memory).
+// A fixed generator (Marsaglia's xorshift, 2003, from memory): the same values every run.
 let state = 2463534242;
 const rand = (): number => {
   state ^= state << 13; state >>>= 0; state ^= state >>> 17; state ^= state << 5; state >>>= 0;
