@@ -236,14 +236,23 @@ export class TriangleStore {
       if (this.hitEdge >= 0) this.splitEdge(this.hitEdge, s);
       else this.splitTriangle(t, s);
     }
-    if (w === null) this.legalize();
-    else {
+    if (w === null) {
+      if (this.mustFlip === null) this.legalize();
+      else this.legalizeBy(this.mustFlip);
+    } else {
       this.legalizeWeighted();
       if (this.newGhost >= 0 && this.vert[this.newGhost] === s && this.vert[this.newGhost + 2] === GHOST) this.pruneFlatHull(s, this.newGhost);
     }
     this.newGhost = -1;
     return -1;
   }
+
+  /**
+   * When set, replaces the in-circle test of the unweighted build: whether
+   * the edge a→b, with the new site p on its left and d across, must flip.
+   * Metric Delaunay triangulations are built this way (diagram/metric/dual.ts).
+   */
+  mustFlip: ((a: number, b: number, p: number, d: number) => boolean) | null = null;
 
   /** Set by extendHull: the half-edge s→(next hull vertex) of the new site's ghost. */
   private newGhost = -1;
@@ -422,6 +431,26 @@ export class TriangleStore {
       }
       stack[depth++] = e1;
       stack[depth++] = f2;
+    }
+    this.depth = 0;
+  }
+
+  /**
+   * legalize() with another edge test. Kept apart so that the Euclidean loop,
+   * the hot one, keeps its predicate inline.
+   */
+  private legalizeBy(mustFlip: (a: number, b: number, p: number, d: number) => boolean): void {
+    const v = this.vert, tw = this.twin;
+    let depth = this.depth;
+    while (depth > 0) {
+      const e = this.stack[--depth];
+      const e1 = nextOf(e), f = tw[e], f2 = prevOf(f);
+      const a = v[e], b = v[e1], d = v[f2];
+      if (a < 0 || b < 0 || d < 0) continue;
+      if (!mustFlip(a, b, v[prevOf(e)], d)) continue;
+      flip(v, tw, e);
+      depth = this.push(e1, depth);
+      depth = this.push(f2, depth);
     }
     this.depth = 0;
   }

@@ -11,6 +11,7 @@ import { SiteHeap } from './heap.js';
 import { dyAdd, dyMul, dySign, dySub, type Dyadic } from './dyadic.js';
 import { hilbertSort } from '../../core/hilbert.js';
 import { renumbered } from './graph.js';
+import { dualRoute, metricDual } from './dual.js';
 import { BAIL, ballReach, CORNER_STRIDE, extent, FloatCell } from './fastcell.js';
 
 /** Label of the temporary box sides used for sites outside the region (never survives). */
@@ -36,6 +37,10 @@ export function metricCells(tri: Triangulation, region: Float64Array, metric: Ex
   const n = tri.siteCount;
   const edges = tri.edges();
   checkSpacing(tri, region, edges);
+  if (dualRoute.enabled) {
+    const dual = metricDual(tri, region, metric);
+    if (dual) { dualRoute.taken++; return dual; }
+  }
   // Cells in the order of a space-filling curve, and the sites renumbered by
   // it (rank k is site order[k]), so that a cell's neighbourhood lies in
   // nearby memory; cells are stored and assembled by rank (labels too), and

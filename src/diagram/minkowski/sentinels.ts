@@ -27,7 +27,15 @@ export const GUARDS = 8;
  * symmetric under the norm's own symmetries (no co-circular guards).
  */
 export function guardedTriangulation(tri: Triangulation, region: ConvexRegion): { tri: Triangulation; inputOf: Int32Array } {
-  const n = tri.siteCount, xy = tri.siteXY;
+  const n = tri.siteCount;
+  const big = triangulate(withGuards(tri.siteXY, n, region));
+  const inputOf = new Int32Array(big.siteCount).fill(-1);
+  for (let i = 0; i < n; i++) inputOf[big.siteOfInput[i]] = i;
+  return { tri: big, inputOf };
+}
+
+/** The n sites of xy (interleaved) followed by GUARDS guard sites, placed as guardedTriangulation explains. */
+export function withGuards(xy: Float64Array, n: number, region: ConvexRegion): Float64Array {
   let spread = 0;
   for (let i = 0; i < n; i++) spread = Math.max(spread, Math.hypot(xy[2 * i] - region.cx, xy[2 * i + 1] - region.cy));
   const G = 4 * (region.radius + spread);
@@ -38,8 +46,5 @@ export function guardedTriangulation(tri: Triangulation, region: ConvexRegion): 
     all[2 * (n + k)] = region.cx + G * Math.cos(angle);
     all[2 * (n + k) + 1] = region.cy + G * Math.sin(angle);
   }
-  const big = triangulate(all);
-  const inputOf = new Int32Array(big.siteCount).fill(-1);
-  for (let i = 0; i < n; i++) inputOf[big.siteOfInput[i]] = i;
-  return { tri: big, inputOf };
+  return all;
 }

@@ -1,0 +1,336 @@
+import { orient } from '../../core/predicates.js';
+import type { HalfEdgeMesh } from '../../mesh/mesh.js';
+import type { Triangulation } from '../../triangulate/triangulation.js';
+import { ConvexRegion } from '../clip.js';
+import { linkMesh } from '../minkowski/link.js';
+import { MeshParts } from '../minkowski/parts.js';
+import { addRing, OUTER } from '../minkowski/ring.js';
+import { GUARDS, withGuards } from '../minkowski/sentinels.js';
+import { TriangleStore } from '../../triangulate/store.js';
+import { hilbertSort } from '../../core/hilbert.js';
+import type { ExactMetric } from './bisector.js';
+import { PairBisector } from './pair.js';
+
+const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
+const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
+
+/** Thrown inside the route when a decision falls within the margin; caught at the top. */
+class Undecided extends Error {}
+
+/**
+ * The L1 or L-infinity diagram as the dual of the metric's Delaunay
+ * triangulation, for input in general position; null when some decision
+ * falls within the rounding margin (or the input is not in general
+ * position: grids, diagonal or axis-aligned pairs, co-circular sites), and
+ * the caller then builds the cells one by one with exact arithmetic
+ * (build.ts). Both give the same cells; this route computes each Voronoi
+ * edge once instead of twice per cell clip.
+ *
+ * Method (the flip route of the Minkowski engine, with closed forms):
+ * 1. Guard sites around everything (sentinels.ts; the argument that their
+ *    cells stay outside the region holds for L1 and L-infinity, both within
+ *    a factor sqrt 2 of the Euclidean norm).
+ * 2. Lawson flips from the Euclidean Delaunay triangulation. For half-edge
+ *    x = a→b with third corner c, S[x] is where along the bisector of a, b
+ *    (as s, see pair.ts) the circle through a, b, c is centred (±Infinity
+ *    when none exists, with the side that says which circles hold c). The
+ *    edge is legal when the Voronoi edge dual to it runs forwards:
+ *    S[x] + S[twin x] > 0. Flips happen across strictly convex
+ *    quadrilaterals only (exact orient).
+ * 3. Certificate: every interior edge clearly legal. Metric circles through
+ *    two points are nested on each side of them, so, as in the Euclidean
+ *    case, a triangulation whose edges are all locally Delaunay is the
+ *    Delaunay triangulation (the walking argument carries over; derived,
+ *    and what the Minkowski engine relies on too).
+ * 4. Each Voronoi edge is its bisector between the two centres: at most two
+ *    bends (exact places), clipped to the region in floating point, where
+ *    every point must be clearly inside or outside (else UNDECIDED), then
+ *    linked into one mesh as in the Minkowski engine.
+ *
+ * Margin: every frame quantity here is a sum of at most about eight
+ * frame coordinates halved, each frame coordinate within one rounding
+ * (x + y for L-infinity) of its exact value, so it is within about 20 u M of
+ * exact (u = 2^-53, M the largest coordinate magnitude); the margin is
+ * 2^-44 M, far above that, and decisions are only taken outside a few margins.
+ */
+export function metricDual(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } | null {
+  try {
+    return build(tri, regionXY, metric);
+  } catch (e) {
+    if (e instanceof Undecided) return null;
+    // Anything the float route cannot link (a cell in pieces, a guard reaching the region) goes to the
+    // exact path, which gives its own answer or error.
+    if (e instanceof Error) return null;
+    throw e;
+  }
+}
+
+function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
+  const n = tri.siteCount;
+  if (n < 2) throw new Undecided();
+  // Everything is computed relative to an origin (see localOrigin) and moved back at the end.
+  const [ox, oy] = localOrigin(tri.siteXY, n, regionXY);
+  const local = regionXY.slice();
+  for (let i = 0; i < local.length; i += 2) { local[i] -= ox; local[i + 1] -= oy; }
+  const region = new ConvexRegion(local);
+  const parts = new MeshParts(region);
+  // Sites 0..n-1 as in tri, then the guards (placed about the local region: they are the route's own sites).
+  const sites = tri.siteXY.slice(0, 2 * n);
+  for (let i = 0; i < 2 * n; i += 2) { sites[i] -= ox; sites[i + 1] -= oy; }
+  const xy = withGuards(sites, n, region), N = n + GUARDS;
+  const siteOf = new Int32Array(N);
+  for (let r = 0; r < N; r++) siteOf[r] = r < n ? r : -1;
+  const rotated = metric === 'Linf';
+  const P = new Float64Array(N), Q = new Float64Array(N);
+  let M = 0;
+  for (let r = 0; r < N; r++) {
+    const x = xy[2 * r], y = xy[2 * r + 1];
+    P[r] = rotated ? x + y : x;
+    Q[r] = rotated ? x - y : y;
+    M = Math.max(M, Math.abs(P[r]), Math.abs(Q[r]));
+  }
+  for (let i = 0; i < local.length; i++) M = Math.max(M, 2 * Math.abs(local[i]));
+  const eps = 2 ** -44 * M;
+  const margin = 16 * eps;
+  const pair = new PairBisector(P, Q, rotated, eps);
+
+  // The metric Delaunay triangulation (step 2).
+  const store = new TriangleStore(xy, 2 * N + 8);
+  store.mustFlip = (a, b, p, d) => {
+    if (!pair.set(a, b)) throw new Undecided();
+    const rp = pair.root(p, 1), rd = pair.root(d, -1);
+    if (Number.isNaN(rp) || Number.isNaN(rd)) throw new Undecided();
+    // The Voronoi edge would run from d's centre to p's: forwards when rd < rp.
+    const sum = rp - rd;
+    if (sum > margin) return false;
+    // NaN here is Infinity - Infinity: one corner inside every circle through a and b, so the edge goes.
+    if (Math.abs(sum) <= margin) throw new Undecided();
+    // A corner inside the circle across makes the quadrilateral convex (the chord meets the circle in ab
+    // alone, as the pair is not on a flat side); checked all the same, as a flip across a reflex corner
+    // would fold the triangulation.
+    if (orient(xy[2 * d], xy[2 * d + 1], xy[2 * p], xy[2 * p + 1], xy[2 * a], xy[2 * a + 1]) <= 0 ||
+      orient(xy[2 * p], xy[2 * p + 1], xy[2 * d], xy[2 * d + 1], xy[2 * b], xy[2 * b + 1]) <= 0) throw new Undecided();
+    return true;
+  };
+  store.init(n, n + 1, n + 2);
+  for (let g = 3; g < GUARDS; g++) store.insert(n + g);
+  const order = hilbertSort(tri.siteXY.subarray(0, 2 * n)).ids;
+  for (let i = 0; i < n; i++) if (store.insert(order[i]) >= 0) throw new Undecided();
+  const count = store.count, vert = store.vert, twin = store.twin;
+  const live = new Uint8Array(count);
+  for (let t = 0; t < count; t++) live[t] = store.isGhost(t) ? 0 : 1;
+  // S[x]: where along the bisector of half-edge x = a→b (as s, pair.ts) the circle through a, b and the
+  // third corner of x's triangle is centred; each pair is set up once for both of its half-edges.
+  const S = new Float64Array(3 * count);
+  for (let x = 0; x < 3 * count; x++) {
+    const y = twin[x];
+    if (y < x || !live[(x / 3) | 0]) continue;
+    if (!pair.set(vert[x], vert[nextOf(x)])) throw new Undecided();
+    S[x] = pair.root(vert[prevOf(x)], 1);
+    if (live[(y / 3) | 0]) S[y] = -pair.root(vert[prevOf(y)], -1);
+    // The certificate (step 3): every edge between two triangles clearly legal.
+    if (Number.isNaN(S[x]) || (live[(y / 3) | 0] && !(S[x] + S[y] > margin))) throw new Undecided();
+  }
+  for (let x = 0; x < 3 * count; x++) if (live[(x / 3) | 0] && !live[(twin[x] / 3) | 0]) {
+    if (!pair.set(vert[x], vert[nextOf(x)])) throw new Undecided();
+    S[x] = pair.root(vert[prevOf(x)], 1);
+    if (Number.isNaN(S[x])) throw new Undecided();
+  }
+
+  const sides = new SideTest(region, eps);
+  // Vertices: each finite centre once, from its first edge's bisector.
+  const pointOf = new Int32Array(count).fill(-1);
+  const cxy = new Float64Array(2 * count);
+  for (let t = 0; t < count; t++) {
+    if (!live[t]) continue;
+    const x = 3 * t;
+    const finite = Number.isFinite(S[x]);
+    if (finite !== Number.isFinite(S[x + 1]) || finite !== Number.isFinite(S[x + 2])) throw new Undecided();
+    if (!finite) continue;
+    pair.set(vert[x], vert[x + 1]);
+    pair.point(S[x]);
+    cxy[2 * t] = pair.x; cxy[2 * t + 1] = pair.y;
+    if (sides.least(pair.x, pair.y) > 0) pointOf[t] = parts.points.add(pair.x, pair.y);
+  }
+
+  // Edges (step 4).
+  const line = new Float64Array(8);
+  const cP = rotated ? region.cx + region.cy : region.cx, cQ = rotated ? region.cx - region.cy : region.cy;
+  const reach = (rotated ? Math.SQRT2 : 1) * region.radius * 1.01 + margin;
+  for (let x = 0; x < 3 * count; x++) {
+    const y = twin[x];
+    if (y < x || !live[(x / 3) | 0]) continue;
+    const a = vert[x], b = vert[nextOf(x)];
+    // Guard cells stay outside the region (see withGuards): their edges are not drawn.
+    if (siteOf[a] < 0 || siteOf[b] < 0) continue;
+    pair.set(a, b);
+    const t = (x / 3) | 0, u = live[(y / 3) | 0] ? (y / 3) | 0 : -1;
+    let s0 = u < 0 ? -Infinity : -S[y], s1 = S[x];
+    // Every region point has its K within `reach` of the region centre's: cut open or far ends there.
+    const sC = pair.tau * (pair.kIsQ ? cQ : cP), lo = sC - reach, hi = sC + reach;
+    const cut0 = s0 < lo, cut1 = s1 > hi;
+    if (cut0) s0 = lo;
+    if (cut1) s1 = hi;
+    if (!(s0 < s1)) continue;
+    let m = 0;
+    if (cut0) { pair.point(s0); line[0] = pair.x; line[1] = pair.y; } else { line[0] = cxy[2 * u]; line[1] = cxy[2 * u + 1]; }
+    m = 1;
+    const b0 = pair.tau * pair.Klo, b1 = pair.tau * pair.Khi;
+    for (let i = 0; i < 2; i++) {
+      const sb = (i === 0) === (b0 < b1) ? b0 : b1;
+      if (Math.abs(sb - s0) <= margin || Math.abs(sb - s1) <= margin) {
+        // A bend at a vertex, or at the cut of an open end (harmless there, far outside).
+        if ((sb === s0 && cut0) || (sb === s1 && cut1)) continue;
+        throw new Undecided();
+      }
+      if (sb > s0 && sb < s1) { pair.point(sb); line[2 * m] = pair.x; line[2 * m + 1] = pair.y; m++; }
+    }
+    if (cut1) { pair.point(s1); line[2 * m] = pair.x; line[2 * m + 1] = pair.y; } else { line[2 * m] = cxy[2 * t]; line[2 * m + 1] = cxy[2 * t + 1]; }
+    m++;
+    clipChain(parts, sides, line, m, a, b, cut0 ? -1 : pointOf[u], cut1 ? -1 : pointOf[t]);
+  }
+  checkCrossings(parts, eps);
+  checkCorners(region, P, Q, siteOf, rotated, margin);
+  addRing(parts, OUTER, () => { throw new Undecided(); });
+  const outside = (rank: number): boolean => !parts.inside(xy[2 * rank], xy[2 * rank + 1]);
+  const out = linkMesh(parts, n, siteOf, outside);
+  if (ox !== 0 || oy !== 0) {
+    const v = out.mesh.vertexXY;
+    for (let i = 0; i < v.length; i += 2) { v[i] += ox; v[i + 1] += oy; }
+  }
+  return out;
+}
+
+/**
+ * Where points are against the region's sides, in length units (positive
+ * inside), for the float clip: every point must be clearly inside or
+ * outside by the margin, or exactly on an axis-parallel side (exact: a
+ * bend's K coordinate is a site's own coordinate, so the bisectors of a
+ * site on a bounding-box side bend on that side).
+ */
+class SideTest {
+  private readonly inv: Float64Array;
+  private readonly limit: number;
+  constructor(private readonly region: ConvexRegion, eps: number) {
+    this.inv = new Float64Array(region.count);
+    for (let j = 0; j < region.count; j++) this.inv[j] = 1 / region.sideLength(j);
+    this.limit = 64 * eps;
+  }
+
+  /** The smallest side value of (x, y); throws Undecided within the margin of a side. */
+  least(x: number, y: number): number {
+    const region = this.region, r = region.xy, m = region.count;
+    let least = Infinity;
+    for (let j = 0; j < m; j++) {
+      let f = region.side(j, x, y) * this.inv[j];
+      if (Math.abs(f) <= this.limit) {
+        const k = j + 1 === m ? 0 : j + 1;
+        const on = (r[2 * j + 1] === r[2 * k + 1] && y === r[2 * j + 1]) || (r[2 * j] === r[2 * k] && x === r[2 * j]);
+        if (!on) throw new Undecided();
+        f = 0;
+      }
+      if (f < least) least = f;
+    }
+    return least;
+  }
+}
+
+/**
+ * The polyline line[0..m) (a Voronoi edge with `left` site on its left)
+ * into the parts: runs inside the region become chains of edges, with
+ * crossings where they leave or enter. Every point must be clearly inside
+ * or outside.
+ */
+function clipChain(parts: MeshParts, sides: SideTest, line: Float64Array, m: number, left: number, right: number, startId: number, endId: number): void {
+  let cur = startId;
+  let inP = sides.least(line[0], line[1]) > 0;
+  for (let i = 0; i + 1 < m; i++) {
+    const px = line[2 * i], py = line[2 * i + 1], qx = line[2 * i + 2], qy = line[2 * i + 3];
+    const inQ = sides.least(qx, qy) > 0;
+    if (inP && inQ) {
+      const next = i + 2 === m && endId >= 0 ? endId : parts.points.add(qx, qy);
+      parts.link(cur, next, left, right);
+      cur = next;
+    } else if (parts.clip(px, py, qx, qy)) {
+      const { tIn, tOut, sideIn, sideOut } = parts;
+      if ((sideIn < 0) !== inP || (sideOut < 0) !== inQ) throw new Undecided();
+      if (cur < 0) cur = parts.cross(sideIn, px, py, qx, qy, tIn, left, right, true);
+      let next: number;
+      if (sideOut >= 0) next = parts.cross(sideOut, px, py, qx, qy, tOut, left, right, false);
+      else next = i + 2 === m && endId >= 0 ? endId : parts.points.add(qx, qy);
+      parts.link(cur, next, left, right);
+      cur = sideOut >= 0 ? -1 : next;
+    } else if (inP || inQ) throw new Undecided();
+    inP = inQ;
+  }
+}
+
+/** Crossings of one side must be clearly apart (and clear of the side's ends), or their order is a guess. */
+function checkCrossings(parts: MeshParts, eps: number): void {
+  const region = parts.region;
+  for (let j = 0; j < region.count; j++) {
+    const list = parts.crossings[j], gap = (64 * eps) / region.sideLength(j);
+    list.sort((u, v) => u.along - v.along);
+    let prev = 0;
+    for (const c of list) {
+      if (!(c.along - prev > gap)) throw new Undecided();
+      prev = c.along;
+    }
+    if (list.length > 0 && !(1 - prev > gap)) throw new Undecided();
+  }
+}
+
+/**
+ * Each region corner must be clearly nearer one site than any other: else a
+ * cell boundary passes within the margin of it, and which cell the float
+ * clip gives it is a guess. Brute force, a few corners times n.
+ */
+function checkCorners(region: ConvexRegion, P: Float64Array, Q: Float64Array, siteOf: Int32Array, rotated: boolean, margin: number): void {
+  for (let j = 0; j < region.count; j++) {
+    const x = region.xy[2 * j], y = region.xy[2 * j + 1];
+    const cp = rotated ? x + y : x, cq = rotated ? x - y : y;
+    let best = Infinity, second = Infinity;
+    for (let r = 0; r < P.length; r++) {
+      if (siteOf[r] < 0) continue;
+      const d = Math.abs(P[r] - cp) + Math.abs(Q[r] - cq);
+      if (d < best) { second = best; best = d; } else if (d < second) second = d;
+    }
+    if (!(second - best > 4 * margin)) throw new Undecided();
+  }
+}
+
+/**
+ * @internal Off makes every exact-metric diagram take the cell-by-cell
+ * exact path; `taken` counts the diagrams the dual route built (tests
+ * compare the two routes and check that the dual one ran).
+ */
+export const dualRoute = { enabled: true, taken: 0 };
+
+/**
+ * An origin for the route's arithmetic: the region's vertex mean when every
+ * site and region coordinate minus it is exact (sites far from zero, relative to their
+ * spread: Sterbenz's lemma makes x - c exact for c/2 <= x <= 2c), else
+ * (0, 0). Exact differences are the same sites, so every decision stays
+ * about the input, while the margin scales with the sites' spread instead
+ * of their distance from zero: data with a large offset (projected
+ * coordinates) then rarely falls back to the exact path.
+ */
+function localOrigin(xy: Float64Array, n: number, region: Float64Array): [number, number] {
+  const m = region.length >> 1;
+  let ox = 0, oy = 0;
+  for (let j = 0; j < m; j++) { ox += region[2 * j] / m; oy += region[2 * j + 1] / m; }
+  for (let i = 0; i < n; i++) {
+    if (!exactDifference(xy[2 * i], ox) || !exactDifference(xy[2 * i + 1], oy)) return [0, 0];
+  }
+  // The region too: its local copy must be the same polygon, for the clip and the exact on-side rule.
+  for (let j = 0; j < m; j++) {
+    if (!exactDifference(region[2 * j], ox) || !exactDifference(region[2 * j + 1], oy)) return [0, 0];
+  }
+  return [ox, oy];
+}
+
+/** Whether a - b is exact in doubles (the rounding error of the difference, computed exactly, is zero: Knuth's two-difference). */
+function exactDifference(a: number, b: number): boolean {
+  const d = a - b, bv = a - d, av = d + bv;
+  return a - av + (bv - b) === 0;
+}
