@@ -44,7 +44,12 @@ function bothWays(points: number[], metric: 'L1' | 'Linf', clip?: ClipRegion): b
     return false;
   }
   expect(checkMesh(dual!.mesh).problems).toEqual([]);
-  expect(diagramDifferences(dual!, exact!, 'dual route')).toEqual([]);
+  // The exact route places a point from floating point when its error bound is within 2^-48 of the size of
+  // its coordinates (REFINE in src/diagram/metric/geometry.ts): tens of ulps at a 1e7 offset, where the dual
+  // route's local origin gives about one. That documented placement is allowed for here.
+  let M = 0;
+  for (const v of exact!.region) M = Math.max(M, Math.abs(v));
+  expect(diagramDifferences(dual!, exact!, 'dual route', 2 ** -47 * M)).toEqual([]);
   return took;
 }
 

@@ -72,9 +72,11 @@ function unmatchedVertices(a: Float64Array, b: Float64Array, tol: number): strin
  * cocircular sites to zero in one and not in the other. Such an edge is
  * within the position tolerance of nothing, so either answer is right.
  * Areas: 1e-9 relative, plus the cell's perimeter times tol, which is what
- * moving its vertices by the position tolerance can change.
+ * moving its vertices by the position tolerance can change. `placement` is
+ * added to the position tolerance where a construction promises less than
+ * a few ulps.
  */
-export function diagramDifferences(got: VoronoiDiagram, want: VoronoiDiagram, label = 'sweep'): string[] {
+export function diagramDifferences(got: VoronoiDiagram, want: VoronoiDiagram, label = 'sweep', placement = 0): string[] {
   const out: string[] = [];
   const tg = got.triangulation, tw = want.triangulation;
   if (tg.siteCount !== tw.siteCount) return [`${label}: ${tg.siteCount} sites, expected ${tw.siteCount}`];
@@ -84,7 +86,7 @@ export function diagramDifferences(got: VoronoiDiagram, want: VoronoiDiagram, la
   if (got.region.join() !== want.region.join()) out.push(`${label}: region ${got.region} vs ${want.region}`);
   if (out.length > 0) return out;
   const pg = cellPairs(got), pw = cellPairs(want);
-  const { tol } = diagramTolerance(want);
+  const tol = diagramTolerance(want).tol + placement;
   for (const [k, len] of pg) if (!pw.has(k) && len > 2 * tol) out.push(`${label}: cells ${k} share ${len}, not neighbours in the reference`);
   for (const [k, len] of pw) if (!pg.has(k) && len > 2 * tol) out.push(`${label}: cells ${k} are not neighbours, the reference has them share ${len}`);
   for (const p of unmatchedVertices(got.mesh.vertexXY, want.mesh.vertexXY, tol)) out.push(`${label}: vertex ${p} of the reference's`);

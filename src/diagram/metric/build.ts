@@ -1,8 +1,7 @@
-import { AmbitError, InputError } from '../../core/errors.js';
+import { AmbitError } from '../../core/errors.js';
 import { orient } from '../../core/predicates.js';
 import { HalfEdgeMesh } from '../../mesh/mesh.js';
 import type { Triangulation } from '../../triangulate/triangulation.js';
-import { MIN_SPACING } from '../dual.js';
 import { bisector, type ExactMetric } from './bisector.js';
 import { clipCell, type Cell, type ClipContext } from './cell.js';
 import { corner, meet, sideOf, throughLine, U, type Line, type Pt } from './geometry.js';
@@ -12,6 +11,7 @@ import { dyAdd, dyMul, dySign, dySub, type Dyadic } from './dyadic.js';
 import { hilbertSort } from '../../core/hilbert.js';
 import { renumbered } from './graph.js';
 import { dualRoute, metricDual } from './dual.js';
+import { checkSpacing } from '../spacing.js';
 import { BAIL, ballReach, CORNER_STRIDE, extent, FloatCell } from './fastcell.js';
 
 /** Label of the temporary box sides used for sites outside the region (never survives). */
@@ -35,12 +35,12 @@ const BOX_LABEL = -(2 ** 30);
  */
 export function metricCells(tri: Triangulation, region: Float64Array, metric: ExactMetric): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
   const n = tri.siteCount;
-  const edges = tri.edges();
-  checkSpacing(tri, region, edges);
+  checkSpacing(tri, region);
   if (dualRoute.enabled) {
     const dual = metricDual(tri, region, metric);
     if (dual) { dualRoute.taken++; return dual; }
   }
+  const edges = tri.edges();
   // Cells in the order of a space-filling curve, and the sites renumbered by
   // it (rank k is site order[k]), so that a cell's neighbourhood lies in
   // nearby memory; cells are stored and assembled by rank (labels too), and
@@ -335,20 +335,4 @@ function positiveArea(pts: Pt[]): boolean {
     total = dyAdd(total, term);
   }
   return dySign(total) * dySign(W) > 0;
-}
-
-/** Two sites too close for any cell boundary between them to be placed in double precision (as for the Euclidean diagram). */
-function checkSpacing(tri: Triangulation, region: Float64Array, edges: Int32Array): void {
-  const xy = tri.siteXY;
-  let magnitude = 0;
-  for (let i = 0; i < 2 * tri.siteCount; i++) magnitude = Math.max(magnitude, Math.abs(xy[i]));
-  for (let i = 0; i < region.length; i++) magnitude = Math.max(magnitude, Math.abs(region[i]));
-  for (let e = 0; e < edges.length; e += 2) {
-    const d = Math.sqrt(dist2(xy, edges[e], edges[e + 1]));
-    if (d < MIN_SPACING * magnitude) {
-      throw new InputError('too-close',
-        `sites ${edges[e]} and ${edges[e + 1]} are ${d} apart, closer than ${MIN_SPACING} times the largest coordinate (${magnitude}); ` +
-        'no cell boundary can be placed between them in double precision', -1, 'points');
-    }
-  }
 }

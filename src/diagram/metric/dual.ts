@@ -114,7 +114,9 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   };
   store.init(n, n + 1, n + 2);
   for (let g = 3; g < GUARDS; g++) store.insert(n + g);
-  const order = hilbertSort(tri.siteXY.subarray(0, 2 * n)).ids;
+  // Insertion along a space-filling curve keeps each walk short: the Euclidean triangulation's rank order is one.
+  const ranks = tri.implicitLayout()?.siteOfRank ?? null;
+  const order = ranks ?? hilbertSort(tri.siteXY.subarray(0, 2 * n)).ids;
   for (let i = 0; i < n; i++) if (store.insert(order[i]) >= 0) throw new Undecided();
   const count = store.count, vert = store.vert, twin = store.twin;
   const live = new Uint8Array(count);

@@ -8,7 +8,7 @@ import { lpLength } from './norm.js';
 import { MeshParts } from './parts.js';
 import { addRing, OUTER } from './ring.js';
 import { guardedTriangulation } from './sentinels.js';
-import { checkSpacing } from './spacing.js';
+import { checkSpacing } from '../spacing.js';
 
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 
