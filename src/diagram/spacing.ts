@@ -22,7 +22,10 @@ export function checkSpacing(tri: Triangulation, region: Float64Array): void {
     const { vert, xy } = layout, len = 3 * layout.real;
     for (let e = 0; e < len; e++) {
       const a = vert[e], b = vert[nextOf(e)];
-      const d = Math.hypot(xy[2 * a] - xy[2 * b], xy[2 * a + 1] - xy[2 * b + 1]);
+      const dx = xy[2 * a] - xy[2 * b], dy = xy[2 * a + 1] - xy[2 * b + 1];
+      // Either difference past the limit settles it without the (slow) hypot.
+      if (Math.abs(dx) >= limit || Math.abs(dy) >= limit) continue;
+      const d = Math.hypot(dx, dy);
       if (d < limit) {
         const rank = layout.siteOfRank;
         refuse(rank ? rank[a] : a, rank ? rank[b] : b, d, magnitude);
