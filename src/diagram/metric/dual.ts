@@ -98,13 +98,22 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   const store = new TriangleStore(xy, 2 * N + 8);
   store.mustFlip = (a, b, p, d) => {
     if (!pair.set(a, b)) throw new Undecided();
-    const rp = pair.root(p, 1), rd = pair.root(d, -1);
-    if (Number.isNaN(rp) || Number.isNaN(rd)) throw new Undecided();
-    // The Voronoi edge would run from d's centre to p's: forwards when rd < rp.
-    const sum = rp - rd;
-    if (sum > margin) return false;
-    // NaN here is Infinity - Infinity: one corner inside every circle through a and b, so the edge goes.
-    if (Math.abs(sum) <= margin) throw new Undecided();
+    // The edge stays when d is outside the circle through a, b and p. With rp where that circle is centred
+    // and rd where d's is, that is rd < rp (the Voronoi edge dual to a→b runs forwards): d's side of the
+    // circles grows with s, so the sign of d's distance beyond the circle at rp says the same, for one root.
+    const rp = pair.root(p, 1);
+    if (Number.isNaN(rp)) throw new Undecided();
+    if (Number.isFinite(rp)) {
+      const g = pair.beyond(rp, d);
+      if (g > margin) return false;
+      if (!(g < -margin)) throw new Undecided();
+    } else {
+      // p outside every circle through a and b (+Infinity): the edge stays unless d is inside every one.
+      // p inside every one (-Infinity): the edge goes.
+      const rd = rp > 0 ? pair.root(d, -1) : -Infinity;
+      if (Number.isNaN(rd)) throw new Undecided();
+      if (rp > 0 && rd < Infinity) return false;
+    }
     // A corner inside the circle across makes the quadrilateral convex (the chord meets the circle in ab
     // alone, as the pair is not on a flat side); checked all the same, as a flip across a reflex corner
     // would fold the triangulation.

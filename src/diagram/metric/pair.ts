@@ -125,6 +125,17 @@ export class PairBisector {
     return (prevG > 0) === (left > 0) ? Infinity : -Infinity;
   }
 
+  /**
+   * d(q, c) - d(q, a) at the bisector point q of parameter s (c's metric
+   * distance beyond the circle centred there through a and b; negative
+   * when c is inside).
+   */
+  beyond(s: number, c: number): number {
+    const k = this.tau * s, D = this.D(k);
+    const Dc = this.kIsQ ? this.P[c] : this.Q[c], Kc = this.kIsQ ? this.Q[c] : this.P[c];
+    return Math.abs(D - Dc) + Math.abs(k - Kc) - Math.abs(D - this.Da) - Math.abs(k - this.Ka);
+  }
+
   /** The bisector point at s = tau k into (x, y). */
   point(s: number): void {
     const k = this.tau * s, D = this.D(k);
