@@ -47,11 +47,11 @@ class Undecided extends Error {}
  *    every point must be clearly inside or outside (else UNDECIDED), then
  *    linked into one mesh as in the Minkowski engine.
  *
- * Margin: every frame quantity here is a sum of at most about eight
- * frame coordinates halved, each frame coordinate within one rounding
- * (x + y for L-infinity) of its exact value, so it is within about 20 u M of
- * exact (u = 2^-53, M the largest coordinate magnitude); the margin is
- * 2^-44 M, far above that, and decisions are only taken outside a few margins.
+ * Margins: decisions about sites (pair.ts allowance) must clear 2^-45 m,
+ * m the largest frame coordinate among the sites involved, a derived bound
+ * on their rounding with room to spare; points against the region's sides,
+ * crossings and corners must clear 2^-38 M, M the largest coordinate of
+ * everything (they are few: only the boundary's neighbourhood).
  */
 export function metricDual(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } | null {
   try {
@@ -92,7 +92,7 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   for (let i = 0; i < local.length; i++) M = Math.max(M, 2 * Math.abs(local[i]));
   const eps = 2 ** -44 * M;
   const margin = 16 * eps;
-  const pair = new PairBisector(P, Q, rotated, eps);
+  const pair = new PairBisector(P, Q, rotated);
 
   // The metric Delaunay triangulation (step 2).
   const store = new TriangleStore(xy, 2 * N + 8);
@@ -105,8 +105,10 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     if (Number.isNaN(rp)) throw new Undecided();
     if (Number.isFinite(rp)) {
       const g = pair.beyond(rp, d);
-      if (g > margin) return false;
-      if (!(g < -margin)) throw new Undecided();
+      // G at a root placed within ~200 u m, with slope at most 2: within 4 allowances.
+      const slack = Math.max(pair.allowance(p, 4), pair.allowance(d, 4));
+      if (g > slack) return false;
+      if (!(g < -slack)) throw new Undecided();
     } else {
       // p outside every circle through a and b (+Infinity): the edge stays unless d is inside every one.
       // p inside every one (-Infinity): the edge goes.
@@ -140,7 +142,7 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     S[x] = pair.root(vert[prevOf(x)], 1);
     if (live[(y / 3) | 0]) S[y] = -pair.root(vert[prevOf(y)], -1);
     // The certificate (step 3): every edge between two triangles clearly legal.
-    if (Number.isNaN(S[x]) || (live[(y / 3) | 0] && !(S[x] + S[y] > margin))) throw new Undecided();
+    if (Number.isNaN(S[x]) || (live[(y / 3) | 0] && !(S[x] + S[y] > Math.max(pair.allowance(vert[prevOf(x)], 4), pair.allowance(vert[prevOf(y)], 4))))) throw new Undecided();
   }
   for (let x = 0; x < 3 * count; x++) if (live[(x / 3) | 0] && !live[(twin[x] / 3) | 0]) {
     if (!pair.set(vert[x], vert[nextOf(x)])) throw new Undecided();
@@ -189,7 +191,7 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     const b0 = pair.tau * pair.Klo, b1 = pair.tau * pair.Khi;
     for (let i = 0; i < 2; i++) {
       const sb = (i === 0) === (b0 < b1) ? b0 : b1;
-      if (Math.abs(sb - s0) <= margin || Math.abs(sb - s1) <= margin) {
+      if (Math.abs(sb - s0) <= pair.allowance(a, 4) || Math.abs(sb - s1) <= pair.allowance(a, 4)) {
         // A bend at a vertex, or at the cut of an open end (harmless there, far outside).
         if ((sb === s0 && cut0) || (sb === s1 && cut1)) continue;
         throw new Undecided();

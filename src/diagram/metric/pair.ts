@@ -38,13 +38,30 @@ export class PairBisector {
     private readonly Q: Float64Array,
     /** True for L-infinity: the frame map (x + y, x - y) reverses orientation and point() maps back. */
     private readonly rotated: boolean,
-    /** Absolute error allowance of every frame quantity (see dual.ts). */
-    private readonly eps: number,
   ) {}
+
+  /** Largest frame coordinate magnitude of the pair: the scale of every rounding error here. */
+  m = 0;
+
+  /**
+   * The rounding allowance of decisions about the pair and site c, derived
+   * for this file's arithmetic: every quantity here combines at most about
+   * eight frame coordinates (each within one rounding of exact for
+   * L-infinity, exact for L1) with coefficients 1 or 1/2, and a value of G
+   * at a breakpoint is within about 180 u m of exact (u = 2^-53, m the largest
+   * magnitude involved), a root within about 200 u m in K. Returned: 2^-45 m
+   * (256 u m) for signs of G, times `k` for sums of such values.
+   */
+  allowance(c: number, k: number): number {
+    const mc = Math.max(this.m, Math.abs(this.P[c]), Math.abs(this.Q[c]));
+    return k * 2 ** -45 * mc;
+  }
 
   /** Sets up the bisector of sites a and b; false when the pair is not clearly in general position. */
   set(a: number, b: number): boolean {
-    const P = this.P, Q = this.Q, eps = this.eps;
+    const P = this.P, Q = this.Q;
+    this.m = Math.max(Math.abs(P[a]), Math.abs(Q[a]), Math.abs(P[b]), Math.abs(Q[b]));
+    const eps = 2 ** -45 * this.m;
     const dP = P[b] - P[a], dQ = Q[b] - Q[a];
     const aP = Math.abs(dP), aQ = Math.abs(dQ);
     if (!(aP > eps && aQ > eps && Math.abs(aP - aQ) > eps)) return false;
@@ -102,7 +119,7 @@ export class PairBisector {
     else if (midC) ks[m++] = Kc;
     ks[m++] = Khi;
     if (Kc > Khi) ks[m++] = Kc;
-    const eps = 8 * this.eps, falls = this.tau * left > 0;
+    const eps = this.allowance(c, 1), falls = this.tau * left > 0;
     const Dlo = this.Dlo, Dhi = this.Dhi, slope = this.slope, Da = this.Da, Ka = this.Ka;
     let prevK = 0, prevG = 0, found = UNDECIDED, crossings = 0;
     for (let i = 0; i < m; i++) {
