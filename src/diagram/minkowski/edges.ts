@@ -51,6 +51,8 @@ export function addEdge(parts: MeshParts, p: number, tol: number, sites: Float64
 function clipLine(parts: MeshParts, a: number, b: number, startId: number, endId: number): void {
   const P = line.xy, m = line.count;
   let cur = startId;
+  // Whether cur is a point this walk made (a bend between the last edge and the next).
+  let made = false;
   for (let i = 0; i + 1 < m; i++) {
     const px = P[2 * i], py = P[2 * i + 1], qx = P[2 * i + 2], qy = P[2 * i + 3];
     if (!parts.clip(px, py, qx, qy)) {
@@ -62,10 +64,14 @@ function clipLine(parts: MeshParts, a: number, b: number, startId: number, endId
       if (sideIn < 0) throw new Error(`minkowski edge ${a}-${b}: an inside point starts no run`);
       cur = parts.cross(sideIn, px, py, qx, qy, tIn, a, b, true);
     }
+    const bend = made;
     let next: number;
+    made = false;
     if (sideOut >= 0) next = parts.cross(sideOut, px, py, qx, qy, tOut, a, b, false);
-    else next = i + 2 === m && endId >= 0 ? endId : parts.points.add(qx, qy);
+    else if (i + 2 === m && endId >= 0) next = endId;
+    else { next = parts.points.add(qx, qy); made = true; }
     parts.link(cur, next, a, b);
+    if (bend) parts.bend();
     cur = sideOut >= 0 ? -1 : next;
   }
 }

@@ -20,24 +20,41 @@ export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOuts
   const H = parts.origin.count, V = parts.points.count;
   const origin = parts.origin.a.slice(0, H), rankFace = parts.face.view();
   const xy = parts.points.xy.slice(0, 2 * V);
-  const off = new Int32Array(V + 1);
-  for (let e = 0; e < H; e++) off[origin[e] + 1]++;
-  for (let v = 0; v < V; v++) off[v + 1] += off[v];
-  const fill = off.slice(0, V), out = new Int32Array(H);
-  for (let e = 0; e < H; e++) out[fill[origin[e]]++] = e;
-  const next = new Int32Array(H), twin = new Int32Array(H);
+  const next = new Int32Array(H).fill(-1), twin = new Int32Array(H);
+  for (let e = 0; e < H; e++) twin[e] = e ^ 1;
+  // At a bend the successor is known (edges k and k + 1 of a run: 2k goes on to 2k + 2, 2k + 3 back to 2k + 1).
+  const runs = parts.bends.a, R = parts.bends.count;
+  let atBends = 0;
+  for (let i = 0; i < R; i += 2) {
+    const last = runs[i + 1];
+    for (let k = runs[i]; k < last; k++) { next[2 * k] = 2 * k + 2; next[2 * k + 3] = 2 * k + 1; }
+    atBends += 2 * (last - runs[i]);
+  }
+  // The other points, indexed by the half-edges leaving them. g leaves a bend exactly when its twin ends at
+  // one, that is when next[g ^ 1] is known; `slot` is touched only at the other points (1 + their index).
+  const slot = new Int32Array(V), G = H - atBends, off = new Int32Array(G + 1), out = new Int32Array(G);
+  let used = 0;
+  for (let g = 0; g < H; g++) {
+    if (next[g ^ 1] >= 0) continue;
+    const v = origin[g];
+    if (slot[v] === 0) slot[v] = ++used;
+    off[slot[v]]++;
+  }
+  for (let c = 0; c < used; c++) off[c + 1] += off[c];
+  const fill = off.slice(0, used);
+  for (let g = 0; g < H; g++) if (next[g ^ 1] < 0) out[fill[slot[origin[g]] - 1]++] = g;
   for (let e = 0; e < H; e++) {
-    const t = e ^ 1, v = origin[t], f = rankFace[e];
-    twin[e] = t;
+    if (next[e] >= 0) continue;
+    const t = e ^ 1, v = origin[t], f = rankFace[e], c = slot[v] - 1, lo = off[c], hi = off[c + 1];
     let found = -1, count = 0;
-    for (let k = off[v]; k < off[v + 1]; k++) {
+    for (let k = lo; k < hi; k++) {
       const g = out[k];
       if (g !== t && rankFace[g] === f) { found = g; count++; }
     }
-    if (count > 1) found = clockwiseFrom(xy, origin, out, off, rankFace, t, f);
+    if (count > 1) found = clockwiseFrom(xy, origin, out, lo, hi, rankFace, t, f);
     if (found < 0) {
       const around: string[] = [];
-      for (let k = off[v]; k < off[v + 1]; k++) around.push(`${out[k]}:${rankFace[out[k]]}/${rankFace[out[k] ^ 1]}`);
+      for (let k = lo; k < hi; k++) around.push(`${out[k]}:${rankFace[out[k]]}/${rankFace[out[k] ^ 1]}`);
       throw new AmbitError('internal', `minkowski diagram: half-edge ${e} of face ${f} has no successor at point ${v} (${xy[2 * v]}, ${xy[2 * v + 1]}); leaving it: ${around.join(' ')}`);
     }
     next[e] = found;
@@ -71,13 +88,13 @@ export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOuts
   return { mesh, faceOfSite };
 }
 
-/** Among the half-edges leaving e's end with face f on the left, the first clockwise from e's twin t. */
-function clockwiseFrom(xy: Float64Array, origin: Int32Array, out: Int32Array, off: Int32Array, face: Int32Array, t: number, f: number): number {
+/** Among the half-edges out[lo..hi) leaving e's end with face f on the left, the first clockwise from e's twin t. */
+function clockwiseFrom(xy: Float64Array, origin: Int32Array, out: Int32Array, lo: number, hi: number, face: Int32Array, t: number, f: number): number {
   const v = origin[t], x = xy[2 * v], y = xy[2 * v + 1];
   const angle = (g: number): number => { const w = origin[g ^ 1]; return Math.atan2(xy[2 * w + 1] - y, xy[2 * w] - x); };
   const base = angle(t);
   let best = -1, bestTurn = Infinity;
-  for (let k = off[v]; k < off[v + 1]; k++) {
+  for (let k = lo; k < hi; k++) {
     const g = out[k];
     if (g === t || face[g] !== f) continue;
     let turn = base - angle(g);

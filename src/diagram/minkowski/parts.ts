@@ -22,6 +22,8 @@ export class MeshParts {
   readonly points = new PointList(4096);
   readonly origin = new IntList(8192);
   readonly face = new IntList(8192);
+  /** Runs of edges joined end to start at bends (see bend()), as pairs: first edge, last edge. */
+  readonly bends = new IntList(1024);
   readonly crossings: Crossing[][];
 
   constructor(readonly region: ConvexRegion) {
@@ -32,6 +34,18 @@ export class MeshParts {
   link(p: number, q: number, left: number, right: number): void {
     this.origin.push(p); this.face.push(left);
     this.origin.push(q); this.face.push(right);
+  }
+
+  /**
+   * Declares the point where the edge before the last ends and the last one
+   * starts a bend: a point made for these two edges, which no other edge
+   * touches. Around a bend linkMesh needs no search: each half-edge arriving
+   * there goes on along the other edge.
+   */
+  bend(): void {
+    const k = (this.origin.count >> 1) - 1, r = this.bends, c = r.count;
+    if (c > 0 && r.a[c - 1] === k - 1) r.a[c - 1] = k;
+    else { r.push(k - 1); r.push(k); }
   }
 
   /** Strictly inside the region (points within rounding of a side count as outside, the same way everywhere). */
