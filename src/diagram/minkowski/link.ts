@@ -18,8 +18,9 @@ import { OUTER } from './ring.js';
  */
 export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOutside: (rank: number) => boolean): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
   const H = parts.origin.count, V = parts.points.count;
-  const origin = parts.origin.a.slice(0, H), rankFace = parts.face.view();
-  const xy = parts.points.xy.slice(0, 2 * V);
+  const tight = <A extends Int32Array | Float64Array>(a: A, k: number): A => (k < 0.9 * a.length ? a.slice(0, k) : a.subarray(0, k)) as A;
+  const origin = tight(parts.origin.a, H), rankFace = parts.face.view();
+  const xy = tight(parts.points.xy, 2 * V);
   const next = new Int32Array(H).fill(-1), twin = new Int32Array(H);
   for (let e = 0; e < H; e++) twin[e] = e ^ 1;
   // At a bend the successor is known (edges k and k + 1 of a run: 2k goes on to 2k + 2, 2k + 3 back to 2k + 1).
