@@ -5,6 +5,7 @@ import { addEdge, type EdgeEnd } from './edges.js';
 import { edgeSpan, lpDelaunay, span } from './flips.js';
 import { linkMesh } from './link.js';
 import { lpLength } from './norm.js';
+import { IntList } from './lists.js';
 import { MeshParts } from './parts.js';
 import { addRing, OUTER } from './ring.js';
 import { guardedTriangulation } from './sentinels.js';
@@ -30,9 +31,7 @@ export function minkowskiCells(tri: Triangulation, regionXY: Float64Array, p: nu
   const n = tri.siteCount;
   checkSpacing(tri, regionXY);
   const region = new ConvexRegion(regionXY);
-  const points = roomFor(n, region, tol);
-  // A connected planar map of V points and F faces has V + F - 2 edges, two half-edges each.
-  const parts = new MeshParts(region, points, 2 * (points + n));
+  const parts = new MeshParts(region);
   const guarded = guardedTriangulation(tri, region);
   const layout = guarded.tri.implicitLayout()!;
   const sites = layout.xy;
@@ -68,36 +67,34 @@ export function minkowskiCells(tri: Triangulation, regionXY: Float64Array, p: nu
     if (r < 0 || far[r]) { end.open = true; end.id = -1; return; }
     end.open = false; end.id = pointOf[r]; end.x = cx[r]; end.y = cy[r];
   };
+  // The edges to draw, each once (by its half-edge in the triangle drawn first).
+  const drawn = new IntList(limit >> 1);
   for (let x = 0; x < limit; x++) {
     const y = twin[x];
     if (y < limit && y < x) continue;
-    const a = vert[x], b = vert[nextOf(x)];
     // Guard cells stay outside the region (see guardedTriangulation): their edges are not drawn.
-    if (siteOf[a] < 0 || siteOf[b] < 0) continue;
-    const t = (x / 3) | 0, u = (y / 3) | 0;
-    if (y < limit && find(t) === find(u)) continue;
-    setEnd(from, u);
-    setEnd(to, t);
-    addEdge(parts, p, tol, sites, a, b, from, to);
+    if (siteOf[vert[x]] < 0 || siteOf[vert[nextOf(x)]] < 0) continue;
+    if (y < limit && find((x / 3) | 0) === find((y / 3) | 0)) continue;
+    drawn.push(x);
+  }
+  // Points and half-edges come at a steady rate along the edges (their order, the triangulation's, mixes
+  // the region well: 1/32 of them predicted the totals within 4%, a little low, on uniform, clustered and
+  // quasi-random sites, p from 1.2 to 3). Room for 8% more than the prediction then lets the lists end
+  // nearly full.
+  const E = drawn.count, check = E >> 5, p0 = parts.points.count, h0 = parts.origin.count;
+  for (let i = 0; i < E; i++) {
+    if (i === check && i > 0) {
+      const grow = 1.08 * (E / i);
+      parts.room(p0 + grow * (parts.points.count - p0), h0 + grow * (parts.origin.count - h0));
+    }
+    const x = drawn.a[i], y = twin[x];
+    setEnd(from, (y / 3) | 0);
+    setEnd(to, (x / 3) | 0);
+    addEdge(parts, p, tol, sites, vert[x], vert[nextOf(x)], from, to);
   }
   addRing(parts, OUTER, () => nearestTo(p, sites, siteOf, region.cx, region.cy));
   const outside = (rank: number): boolean => !parts.inside(sites[2 * rank], sites[2 * rank + 1]);
   return linkMesh(parts, n, siteOf, outside);
-}
-
-/**
- * A guess a little above the number of mesh points: two vertices per site,
- * and three edges per site with their bends. A chord within tol of an arc
- * of curvature k spans about sqrt(8 tol / k), and bisectors bend on the
- * scale of the sites' spacing, so the bends per edge grow as
- * sqrt(spacing / tol): 0.26 to 0.31 times that on uniform sites for p from
- * 1.2 to 3 (measured); 0.35 leaves room. Capped, so that a tiny tolerance
- * does not reserve more than the lists would reach by doubling.
- */
-function roomFor(n: number, region: ConvexRegion, tol: number): number {
-  const spacing = Math.sqrt(region.area() / Math.max(1, n));
-  const bends = 0.35 * Math.sqrt(spacing / tol);
-  return Math.min(1 << 25, Math.max(4096, Math.ceil(n * (2 + 3 * bends))));
 }
 
 /** The site nearest to (x, y) in the p-norm, by brute force (only asked when one cell covers the whole region). */

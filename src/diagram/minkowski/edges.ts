@@ -53,21 +53,26 @@ function clipLine(parts: MeshParts, a: number, b: number, startId: number, endId
   let cur = startId;
   // Whether cur is a point this walk made (a bend between the last edge and the next).
   let made = false;
+  // Each point is tested once, for both of its segments. A segment with both ends inside by this rule is
+  // whole, as clip() would find it: every side is positive at both ends, so no side cuts it.
+  let inP = parts.inside(P[0], P[1]);
   for (let i = 0; i + 1 < m; i++) {
     const px = P[2 * i], py = P[2 * i + 1], qx = P[2 * i + 2], qy = P[2 * i + 3];
-    if (!parts.clip(px, py, qx, qy)) {
+    const inQ = parts.inside(qx, qy), whole = inP && inQ;
+    inP = inQ;
+    if (!whole && !parts.clip(px, py, qx, qy)) {
       if (cur >= 0) throw new Error(`minkowski edge ${a}-${b}: a run lost its way (inside point, no inside segment)`);
       continue;
     }
-    const { tIn, tOut, sideIn, sideOut } = parts;
+    const sideOut = whole ? -1 : parts.sideOut;
     if (cur < 0) {
-      if (sideIn < 0) throw new Error(`minkowski edge ${a}-${b}: an inside point starts no run`);
-      cur = parts.cross(sideIn, px, py, qx, qy, tIn, a, b, true);
+      if (whole || parts.sideIn < 0) throw new Error(`minkowski edge ${a}-${b}: an inside point starts no run`);
+      cur = parts.cross(parts.sideIn, px, py, qx, qy, parts.tIn, a, b, true);
     }
     const bend = made;
     let next: number;
     made = false;
-    if (sideOut >= 0) next = parts.cross(sideOut, px, py, qx, qy, tOut, a, b, false);
+    if (sideOut >= 0) next = parts.cross(sideOut, px, py, qx, qy, parts.tOut, a, b, false);
     else if (i + 2 === m && endId >= 0) next = endId;
     else { next = parts.points.add(qx, qy); made = true; }
     parts.link(cur, next, a, b);

@@ -18,8 +18,10 @@ import { OUTER } from './ring.js';
  */
 export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOutside: (rank: number) => boolean): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
   const H = parts.origin.count, V = parts.points.count;
+  // The lists become the mesh's arrays: views when they are nearly full (see MeshParts.room), since copying
+  // costs about as much as filling them; `face` is renumbered in place below, so `parts` is spent.
   const tight = <A extends Int32Array | Float64Array>(a: A, k: number): A => (k < 0.9 * a.length ? a.slice(0, k) : a.subarray(0, k)) as A;
-  const origin = tight(parts.origin.a, H), rankFace = parts.face.view();
+  const origin = tight(parts.origin.a, H), rankFace = tight(parts.face.a, H);
   const xy = tight(parts.points.xy, 2 * V);
   const next = new Int32Array(H).fill(-1), twin = new Int32Array(H);
   for (let e = 0; e < H; e++) twin[e] = e ^ 1;
@@ -60,28 +62,28 @@ export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOuts
     }
     next[e] = found;
   }
-  const faceEdge = new Int32Array(n + 1).fill(-1), faceSite = new Int32Array(n + 1), face = new Int32Array(H);
+  const faceEdge = new Int32Array(n + 1).fill(-1), faceSite = new Int32Array(n + 1), face = rankFace;
   for (let s = 0; s < n; s++) faceSite[s] = s;
   faceSite[n] = -1;
   for (let e = 0; e < H; e++) {
-    const f = rankFace[e];
+    const f = face[e];
     face[e] = f === OUTER ? n : siteOf[f];
     if (face[e] < 0) throw new AmbitError('internal', `minkowski diagram: a guard site's cell reached the region`);
   }
   // One cycle per face.
-  const seen = new Uint8Array(H);
+  const seen = new Int32Array((H + 31) >> 5);
   for (let e = 0; e < H; e++) {
-    if (seen[e]) continue;
+    if (seen[e >> 5] & (1 << (e & 31))) continue;
     const f = face[e];
     if (faceEdge[f] >= 0) {
-      const rank = rankFace[e];
+      const rank = f === n ? OUTER : siteOf.indexOf(f);
       throw new AmbitError('unsupported-geometry', isOutside(rank)
         ? `the cell of site ${f}, which lies outside the clip region, meets the region in separate pieces; this is not supported yet`
         : `the cell of site ${f} came out in separate pieces (a rounding problem in the Minkowski diagram)`);
     }
     faceEdge[f] = e;
     let x = e;
-    do { seen[x] = 1; x = next[x]; } while (x !== e);
+    do { seen[x >> 5] |= 1 << (x & 31); x = next[x]; } while (x !== e);
   }
   const faceOfSite = new Int32Array(n);
   for (let s = 0; s < n; s++) faceOfSite[s] = faceEdge[s] >= 0 ? s : -1;

@@ -19,23 +19,26 @@ export interface Crossing {
  * each; crossings with the region's boundary, per side.
  */
 export class MeshParts {
-  readonly points: PointList;
-  readonly origin: IntList;
-  readonly face: IntList;
+  readonly points = new PointList(4096);
+  readonly origin = new IntList(8192);
+  readonly face = new IntList(8192);
   /** Runs of edges joined end to start at bends (see bend()), as pairs: first edge, last edge. */
   readonly bends = new IntList(1024);
   readonly crossings: Crossing[][];
 
-  /**
-   * How many points and half-edges to make room for at once. A guess above
-   * the final count costs little (pages of a typed array that are never
-   * written are never touched); one below costs copies as the lists double.
-   */
-  constructor(readonly region: ConvexRegion, points = 4096, halfEdges = 2 * points) {
+  constructor(readonly region: ConvexRegion) {
     this.crossings = Array.from({ length: region.count }, () => []);
-    this.points = new PointList(points);
-    this.origin = new IntList(halfEdges);
-    this.face = new IntList(halfEdges);
+  }
+
+  /**
+   * Room for this many points and half-edges in all (see IntList.room):
+   * lists that end nearly full are handed to the mesh as they are (see
+   * linkMesh), where a copy would cost about as much as filling them.
+   */
+  room(points: number, halfEdges: number): void {
+    this.points.room(points);
+    this.origin.room(halfEdges);
+    this.face.room(halfEdges);
   }
 
   /** An edge p → q with face `left` on its left and `right` on its right. */
