@@ -11,6 +11,9 @@ import { OUTER } from './ring.js';
  * e is the one leaving e's end with e's face on its left; no angles are
  * compared. Where a face comes twice (a cell pinched at a point), the
  * first of them clockwise from e's twin is taken, as in any planar map.
+ * At a bend (see MeshParts.bend: most points, the inside of each edge's
+ * polyline) there is nothing to search: the successor is the next edge of
+ * the run, so the search, and its index, covers the other points only.
  *
  * Faces are renumbered from ranks to input sites (`siteOf`); the outer
  * face, OUTER while building, becomes n, the site count. A face whose edges form more than one
@@ -30,7 +33,10 @@ export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOuts
   let atBends = 0;
   for (let i = 0; i < R; i += 2) {
     const last = runs[i + 1];
-    for (let k = runs[i]; k < last; k++) { next[2 * k] = 2 * k + 2; next[2 * k + 3] = 2 * k + 1; }
+    for (let k = runs[i]; k < last; k++) {
+      if (origin[2 * k + 1] !== origin[2 * k + 2]) throw new AmbitError('internal', `minkowski diagram: edges ${k} and ${k + 1} meet at no bend`);
+      next[2 * k] = 2 * k + 2; next[2 * k + 3] = 2 * k + 1;
+    }
     atBends += 2 * (last - runs[i]);
   }
   // The other points, indexed by the half-edges leaving them. g leaves a bend exactly when its twin ends at
@@ -83,7 +89,12 @@ export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOuts
     }
     faceEdge[f] = e;
     let x = e;
-    do { seen[x >> 5] |= 1 << (x & 31); x = next[x]; } while (x !== e);
+    do {
+      const w = x >> 5, bit = 1 << (x & 31);
+      if (seen[w] & bit) throw new AmbitError('internal', `minkowski diagram: the walk around face ${f} from half-edge ${e} ran into another cycle at ${x}`);
+      seen[w] |= bit;
+      x = next[x];
+    } while (x !== e);
   }
   const faceOfSite = new Int32Array(n);
   for (let s = 0; s < n; s++) faceOfSite[s] = faceEdge[s] >= 0 ? s : -1;
