@@ -26,7 +26,6 @@ export function addEdge(parts: MeshParts, p: number, tol: number, sites: Float64
   // Every region point is within `radius` of its centre, so its s is within radius of the centre's;
   // the cut points lie 1% beyond, surely outside.
   const sC = f.sOf(region.cx, region.cy), lo = sC - 1.01 * region.radius, hi = sC + 1.01 * region.radius;
-  const tOf = (x: number, y: number): number => (x - f.mx) * f.ex + (y - f.my) * f.ey;
   let s0 = from.open ? -Infinity : f.sOf(from.x, from.y), s1 = to.open ? Infinity : f.sOf(to.x, to.y);
   const cut0 = s0 < lo, cut1 = s1 > hi;
   if (cut0) s0 = lo;
@@ -39,13 +38,16 @@ export function addEdge(parts: MeshParts, p: number, tol: number, sites: Float64
   } else {
     if (!(s0 < s1)) return;
     let x0: number, y0: number, t0: number, x1: number, y1: number, t1: number;
-    if (cut0) { f.at(s0, 0); x0 = f.x; y0 = f.y; t0 = f.t; } else { x0 = from.x; y0 = from.y; t0 = tOf(x0, y0); }
-    if (cut1) { f.at(s1, t0); x1 = f.x; y1 = f.y; t1 = f.t; } else { x1 = to.x; y1 = to.y; t1 = tOf(x1, y1); }
+    if (cut0) { f.at(s0, 0); x0 = f.x; y0 = f.y; t0 = f.t; } else { x0 = from.x; y0 = from.y; t0 = tOf(f, x0, y0); }
+    if (cut1) { f.at(s1, t0); x1 = f.x; y1 = f.y; t1 = f.t; } else { x1 = to.x; y1 = to.y; t1 = tOf(f, x1, y1); }
     line.add(x0, y0, s0);
     sampleEdge(f, s0, x0, y0, t0, s1, x1, y1, t1, tol, line);
   }
   clipLine(parts, a, b, cut0 ? -1 : from.id, cut1 ? -1 : to.id);
 }
+
+/** The bisector's other coordinate t of a point (a function, not a closure per edge). */
+function tOf(f: PairFrame, x: number, y: number): number { return (x - f.mx) * f.ex + (y - f.my) * f.ey; }
 
 /** Walks the polyline through the region: runs of it become chains of edges, with crossings at their ends. */
 function clipLine(parts: MeshParts, a: number, b: number, startId: number, endId: number): void {
