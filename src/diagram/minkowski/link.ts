@@ -26,34 +26,34 @@ export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOuts
   const tight = <A extends Int32Array | Float64Array>(a: A, k: number): A => (k < 0.9 * a.length ? a.slice(0, k) : a.subarray(0, k)) as A;
   const origin = tight(parts.origin.a, H), rankFace = tight(parts.face.a, H);
   const xy = tight(parts.points.xy, 2 * V);
-  const next = new Int32Array(H).fill(-1), twin = new Int32Array(H);
+  const next = new Int32Array(H), twin = new Int32Array(H);
   for (let e = 0; e < H; e++) twin[e] = e ^ 1;
   // At a bend the successor is known (edges k and k + 1 of a run: 2k goes on to 2k + 2, 2k + 3 back to 2k + 1).
   const runs = parts.bends.a, R = parts.bends.count;
-  let atBends = 0;
   for (let i = 0; i < R; i += 2) {
     const last = runs[i + 1];
     for (let k = runs[i]; k < last; k++) {
       if (origin[2 * k + 1] !== origin[2 * k + 2]) throw new AmbitError('internal', `minkowski diagram: edges ${k} and ${k + 1} meet at no bend`);
       next[2 * k] = 2 * k + 2; next[2 * k + 3] = 2 * k + 1;
     }
-    atBends += 2 * (last - runs[i]);
   }
-  // The other points, indexed by the half-edges leaving them. g leaves a bend exactly when its twin ends at
-  // one, that is when next[g ^ 1] is known; `slot` is touched only at the other points (1 + their index).
-  const slot = new Int32Array(V), G = H - atBends, off = new Int32Array(G + 1), out = new Int32Array(G);
+  // The rest end at the other points; their twins are the half-edges leaving those, by which the points are
+  // indexed: `slot` (1 + a point's index) is touched only at them.
+  const ends = endingElsewhere(runs, R, H >> 1), G = ends.length;
+  const slot = new Int32Array(V), off = new Int32Array(G + 1), out = new Int32Array(G);
   let used = 0;
-  for (let g = 0; g < H; g++) {
-    if (next[g ^ 1] >= 0) continue;
-    const v = origin[g];
+  for (let i = 0; i < G; i++) {
+    const v = origin[ends[i] ^ 1];
     if (slot[v] === 0) slot[v] = ++used;
     off[slot[v]]++;
   }
   for (let c = 0; c < used; c++) off[c + 1] += off[c];
+  // Each point's list in increasing half-edge order (ends[i] ^ 1 only swaps the two of one edge, which leave
+  // different points).
   const fill = off.slice(0, used);
-  for (let g = 0; g < H; g++) if (next[g ^ 1] < 0) out[fill[slot[origin[g]] - 1]++] = g;
-  for (let e = 0; e < H; e++) {
-    if (next[e] >= 0) continue;
+  for (let i = 0; i < G; i++) { const g = ends[i] ^ 1; out[fill[slot[origin[g]] - 1]++] = g; }
+  for (let i = 0; i < G; i++) {
+    const e = ends[i];
     const t = e ^ 1, v = origin[t], f = rankFace[e], c = slot[v] - 1, lo = off[c], hi = off[c + 1];
     let found = -1, count = 0;
     for (let k = lo; k < hi; k++) {
@@ -100,6 +100,30 @@ export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOuts
   for (let s = 0; s < n; s++) faceOfSite[s] = faceEdge[s] >= 0 ? s : -1;
   const mesh = new HalfEdgeMesh({ kind: 'voronoi', vertexXY: xy, origin, twin, next, face, faceEdge, faceSite, outerFace: n });
   return { mesh, faceOfSite };
+}
+
+/**
+ * The half-edges, in increasing order, that end at a point other than a
+ * bend, given the runs (first and last edge, in increasing order, apart).
+ * Edge k of a run [f, l] ends at a bend when k < l and starts at one when
+ * k > f: so 2k (along) ends elsewhere only at k = l, 2k + 1 (back) only at
+ * k = f; both half-edges of an edge outside every run do.
+ */
+function endingElsewhere(runs: Int32Array, R: number, E: number): Int32Array {
+  let inRuns = 0;
+  for (let i = 0; i < R; i += 2) inRuns += runs[i + 1] - runs[i] + 1;
+  const ends = new Int32Array(2 * (E - inRuns) + R);
+  let c = 0, k = 0;
+  for (let i = 0; i <= R; i += 2) {
+    const f = i < R ? runs[i] : E;
+    for (; k < f; k++) { ends[c++] = 2 * k; ends[c++] = 2 * k + 1; }
+    if (i === R) break;
+    const l = runs[i + 1];
+    ends[c++] = 2 * f + 1;
+    ends[c++] = 2 * l;
+    k = l + 1;
+  }
+  return ends;
 }
 
 /** Among the half-edges out[lo..hi) leaving e's end with face f on the left, the first clockwise from e's twin t. */
