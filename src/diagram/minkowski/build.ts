@@ -5,6 +5,7 @@ import { addEdge, type EdgeEnd } from './edges.js';
 import { edgeSpan, lpDelaunay, span } from './flips.js';
 import { linkMesh } from './link.js';
 import { lpLength } from './norm.js';
+import { IntList } from './lists.js';
 import { MeshParts } from './parts.js';
 import { addRing, OUTER } from './ring.js';
 import { guardedTriangulation } from './sentinels.js';
@@ -66,17 +67,30 @@ export function minkowskiCells(tri: Triangulation, regionXY: Float64Array, p: nu
     if (r < 0 || far[r]) { end.open = true; end.id = -1; return; }
     end.open = false; end.id = pointOf[r]; end.x = cx[r]; end.y = cy[r];
   };
+  // The edges to draw, each once (by its half-edge in the triangle drawn first).
+  const drawn = new IntList(limit >> 1);
   for (let x = 0; x < limit; x++) {
     const y = twin[x];
     if (y < limit && y < x) continue;
-    const a = vert[x], b = vert[nextOf(x)];
     // Guard cells stay outside the region (see guardedTriangulation): their edges are not drawn.
-    if (siteOf[a] < 0 || siteOf[b] < 0) continue;
-    const t = (x / 3) | 0, u = (y / 3) | 0;
-    if (y < limit && find(t) === find(u)) continue;
-    setEnd(from, u);
-    setEnd(to, t);
-    addEdge(parts, p, tol, sites, a, b, from, to);
+    if (siteOf[vert[x]] < 0 || siteOf[vert[nextOf(x)]] < 0) continue;
+    if (y < limit && find((x / 3) | 0) === find((y / 3) | 0)) continue;
+    drawn.push(x);
+  }
+  // Points and half-edges come at a steady rate along the edges (their order, the triangulation's, mixes
+  // the region well: 1/32 of them predicted the totals within 4%, a little low, on uniform, clustered and
+  // quasi-random sites, p from 1.2 to 3). Room for 8% more than the prediction then lets the lists end
+  // nearly full.
+  const E = drawn.count, check = E >> 5, p0 = parts.points.count, h0 = parts.origin.count;
+  for (let i = 0; i < E; i++) {
+    if (i === check && i > 0) {
+      const grow = 1.08 * (E / i);
+      parts.room(p0 + grow * (parts.points.count - p0), h0 + grow * (parts.origin.count - h0));
+    }
+    const x = drawn.a[i], y = twin[x];
+    setEnd(from, (y / 3) | 0);
+    setEnd(to, (x / 3) | 0);
+    addEdge(parts, p, tol, sites, vert[x], vert[nextOf(x)], from, to);
   }
   addRing(parts, OUTER, () => nearestTo(p, sites, siteOf, region.cx, region.cy));
   const outside = (rank: number): boolean => !parts.inside(sites[2 * rank], sites[2 * rank + 1]);

@@ -26,7 +26,6 @@ export function addEdge(parts: MeshParts, p: number, tol: number, sites: Float64
   // Every region point is within `radius` of its centre, so its s is within radius of the centre's;
   // the cut points lie 1% beyond, surely outside.
   const sC = f.sOf(region.cx, region.cy), lo = sC - 1.01 * region.radius, hi = sC + 1.01 * region.radius;
-  const tOf = (x: number, y: number): number => (x - f.mx) * f.ex + (y - f.my) * f.ey;
   let s0 = from.open ? -Infinity : f.sOf(from.x, from.y), s1 = to.open ? Infinity : f.sOf(to.x, to.y);
   const cut0 = s0 < lo, cut1 = s1 > hi;
   if (cut0) s0 = lo;
@@ -39,33 +38,47 @@ export function addEdge(parts: MeshParts, p: number, tol: number, sites: Float64
   } else {
     if (!(s0 < s1)) return;
     let x0: number, y0: number, t0: number, x1: number, y1: number, t1: number;
-    if (cut0) { f.at(s0, 0); x0 = f.x; y0 = f.y; t0 = f.t; } else { x0 = from.x; y0 = from.y; t0 = tOf(x0, y0); }
-    if (cut1) { f.at(s1, t0); x1 = f.x; y1 = f.y; t1 = f.t; } else { x1 = to.x; y1 = to.y; t1 = tOf(x1, y1); }
+    if (cut0) { f.at(s0, 0); x0 = f.x; y0 = f.y; t0 = f.t; } else { x0 = from.x; y0 = from.y; t0 = tOf(f, x0, y0); }
+    if (cut1) { f.at(s1, t0); x1 = f.x; y1 = f.y; t1 = f.t; } else { x1 = to.x; y1 = to.y; t1 = tOf(f, x1, y1); }
     line.add(x0, y0, s0);
     sampleEdge(f, s0, x0, y0, t0, s1, x1, y1, t1, tol, line);
   }
   clipLine(parts, a, b, cut0 ? -1 : from.id, cut1 ? -1 : to.id);
 }
 
+/** The bisector's other coordinate t of a point (a function, not a closure per edge). */
+function tOf(f: PairFrame, x: number, y: number): number { return (x - f.mx) * f.ex + (y - f.my) * f.ey; }
+
 /** Walks the polyline through the region: runs of it become chains of edges, with crossings at their ends. */
 function clipLine(parts: MeshParts, a: number, b: number, startId: number, endId: number): void {
   const P = line.xy, m = line.count;
   let cur = startId;
+  // Whether cur is a point this walk made (a bend between the last edge and the next).
+  let made = false;
+  // Each point is tested once, for both of its segments. A segment with both ends inside by this rule is
+  // whole, as clip() would find it: every side is positive at both ends, so no side cuts it.
+  let inP = parts.inside(P[0], P[1]);
   for (let i = 0; i + 1 < m; i++) {
     const px = P[2 * i], py = P[2 * i + 1], qx = P[2 * i + 2], qy = P[2 * i + 3];
-    if (!parts.clip(px, py, qx, qy)) {
+    const inQ = parts.inside(qx, qy), whole = inP && inQ;
+    inP = inQ;
+    if (!whole && !parts.clip(px, py, qx, qy)) {
       if (cur >= 0) throw new Error(`minkowski edge ${a}-${b}: a run lost its way (inside point, no inside segment)`);
       continue;
     }
-    const { tIn, tOut, sideIn, sideOut } = parts;
+    const sideOut = whole ? -1 : parts.sideOut;
     if (cur < 0) {
-      if (sideIn < 0) throw new Error(`minkowski edge ${a}-${b}: an inside point starts no run`);
-      cur = parts.cross(sideIn, px, py, qx, qy, tIn, a, b, true);
+      if (whole || parts.sideIn < 0) throw new Error(`minkowski edge ${a}-${b}: an inside point starts no run`);
+      cur = parts.cross(parts.sideIn, px, py, qx, qy, parts.tIn, a, b, true);
     }
+    const bend = made;
     let next: number;
-    if (sideOut >= 0) next = parts.cross(sideOut, px, py, qx, qy, tOut, a, b, false);
-    else next = i + 2 === m && endId >= 0 ? endId : parts.points.add(qx, qy);
+    made = false;
+    if (sideOut >= 0) next = parts.cross(sideOut, px, py, qx, qy, parts.tOut, a, b, false);
+    else if (i + 2 === m && endId >= 0) next = endId;
+    else { next = parts.points.add(qx, qy); made = true; }
     parts.link(cur, next, a, b);
+    if (bend) parts.bend();
     cur = sideOut >= 0 ? -1 : next;
   }
 }

@@ -8,6 +8,11 @@ export class IntList {
     this.a[this.count++] = v;
   }
   view(): Int32Array { return this.a.subarray(0, this.count); }
+  /** Sets the capacity (never below the count): room made once, where doubling would copy. */
+  room(capacity: number): void {
+    const c = Math.max(16, this.count, Math.ceil(capacity));
+    if (c !== this.a.length) { const b = new Int32Array(c); b.set(this.a.subarray(0, this.count)); this.a = b; }
+  }
 }
 
 /** A growable list of points, interleaved x, y. */
@@ -20,5 +25,10 @@ export class PointList {
     this.xy[2 * this.count] = x;
     this.xy[2 * this.count + 1] = y;
     return this.count++;
+  }
+  /** Sets the capacity in points (never below the count), as IntList.room. */
+  room(capacity: number): void {
+    const c = 2 * Math.max(16, this.count, Math.ceil(capacity));
+    if (c !== this.xy.length) { const b = new Float64Array(c); b.set(this.xy.subarray(0, 2 * this.count)); this.xy = b; }
   }
 }

@@ -22,16 +22,41 @@ export class MeshParts {
   readonly points = new PointList(4096);
   readonly origin = new IntList(8192);
   readonly face = new IntList(8192);
+  /** Runs of edges joined end to start at bends (see bend()), as pairs: first edge, last edge. */
+  readonly bends = new IntList(1024);
   readonly crossings: Crossing[][];
 
   constructor(readonly region: ConvexRegion) {
     this.crossings = Array.from({ length: region.count }, () => []);
   }
 
+  /**
+   * Room for this many points and half-edges in all (see IntList.room):
+   * lists that end nearly full are handed to the mesh as they are (see
+   * linkMesh), where a copy would cost about as much as filling them.
+   */
+  room(points: number, halfEdges: number): void {
+    this.points.room(points);
+    this.origin.room(halfEdges);
+    this.face.room(halfEdges);
+  }
+
   /** An edge p → q with face `left` on its left and `right` on its right. */
   link(p: number, q: number, left: number, right: number): void {
     this.origin.push(p); this.face.push(left);
     this.origin.push(q); this.face.push(right);
+  }
+
+  /**
+   * Declares the point where the edge before the last ends and the last one
+   * starts a bend: a point made for these two edges, which no other edge
+   * touches. Around a bend linkMesh needs no search: each half-edge arriving
+   * there goes on along the other edge.
+   */
+  bend(): void {
+    const k = (this.origin.count >> 1) - 1, r = this.bends, c = r.count;
+    if (c > 0 && r.a[c - 1] === k - 1) r.a[c - 1] = k;
+    else { r.push(k - 1); r.push(k); }
   }
 
   /** Strictly inside the region (points within rounding of a side count as outside, the same way everywhere). */
