@@ -4,6 +4,7 @@ import type { Triangulation } from '../../triangulate/triangulation.js';
 import { ConvexRegion } from '../clip.js';
 import { linkMesh } from '../minkowski/link.js';
 import { MeshParts } from '../minkowski/parts.js';
+import { clipPolyline } from '../minkowski/edges.js';
 import { addRing, OUTER } from '../minkowski/ring.js';
 import { GUARDS, withGuards } from '../minkowski/sentinels.js';
 import { TriangleStore } from '../../triangulate/store.js';
@@ -151,6 +152,8 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   }
 
   const sides = new SideTest(region, eps);
+  // About 6 points (centres and bends) and 14 half-edges a site on well-spread input: room for them from the start.
+  parts.room(6.3 * n + 64, 14.5 * n + 256);
   // Vertices: each finite centre once, from its first edge's bisector.
   const pointOf = new Int32Array(count).fill(-1);
   const cxy = new Float64Array(2 * count);
@@ -200,7 +203,7 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     }
     if (cut1) { pair.point(s1); line[2 * m] = pair.x; line[2 * m + 1] = pair.y; } else { line[2 * m] = cxy[2 * t]; line[2 * m + 1] = cxy[2 * t + 1]; }
     m++;
-    clipChain(parts, sides, line, m, a, b, cut0 ? -1 : pointOf[u], cut1 ? -1 : pointOf[t]);
+    clipPolyline(parts, line, m, a, b, cut0 ? -1 : pointOf[u], cut1 ? -1 : pointOf[t], sides);
   }
   checkCrossings(parts, eps);
   checkCorners(region, P, Q, siteOf, rotated, margin);
@@ -230,6 +233,9 @@ class SideTest {
     this.limit = 64 * eps;
   }
 
+  /** Strictly inside, by the margin (see least). */
+  inside(x: number, y: number): boolean { return this.least(x, y) > 0; }
+
   /** The smallest side value of (x, y); throws Undecided within the margin of a side. */
   least(x: number, y: number): number {
     const region = this.region, r = region.xy, m = region.count;
@@ -245,36 +251,6 @@ class SideTest {
       if (f < least) least = f;
     }
     return least;
-  }
-}
-
-/**
- * The polyline line[0..m) (a Voronoi edge with `left` site on its left)
- * into the parts: runs inside the region become chains of edges, with
- * crossings where they leave or enter. Every point must be clearly inside
- * or outside.
- */
-function clipChain(parts: MeshParts, sides: SideTest, line: Float64Array, m: number, left: number, right: number, startId: number, endId: number): void {
-  let cur = startId;
-  let inP = sides.least(line[0], line[1]) > 0;
-  for (let i = 0; i + 1 < m; i++) {
-    const px = line[2 * i], py = line[2 * i + 1], qx = line[2 * i + 2], qy = line[2 * i + 3];
-    const inQ = sides.least(qx, qy) > 0;
-    if (inP && inQ) {
-      const next = i + 2 === m && endId >= 0 ? endId : parts.points.add(qx, qy);
-      parts.link(cur, next, left, right);
-      cur = next;
-    } else if (parts.clip(px, py, qx, qy)) {
-      const { tIn, tOut, sideIn, sideOut } = parts;
-      if ((sideIn < 0) !== inP || (sideOut < 0) !== inQ) throw new Undecided();
-      if (cur < 0) cur = parts.cross(sideIn, px, py, qx, qy, tIn, left, right, true);
-      let next: number;
-      if (sideOut >= 0) next = parts.cross(sideOut, px, py, qx, qy, tOut, left, right, false);
-      else next = i + 2 === m && endId >= 0 ? endId : parts.points.add(qx, qy);
-      parts.link(cur, next, left, right);
-      cur = sideOut >= 0 ? -1 : next;
-    } else if (inP || inQ) throw new Undecided();
-    inP = inQ;
   }
 }
 

@@ -43,24 +43,32 @@ export function addEdge(parts: MeshParts, p: number, tol: number, sites: Float64
     line.add(x0, y0, s0);
     sampleEdge(f, s0, x0, y0, t0, s1, x1, y1, t1, tol, line);
   }
-  clipLine(parts, a, b, cut0 ? -1 : from.id, cut1 ? -1 : to.id);
+  clipPolyline(parts, line.xy, line.count, a, b, cut0 ? -1 : from.id, cut1 ? -1 : to.id, parts);
 }
 
 /** The bisector's other coordinate t of a point (a function, not a closure per edge). */
 function tOf(f: PairFrame, x: number, y: number): number { return (x - f.mx) * f.ex + (y - f.my) * f.ey; }
 
-/** Walks the polyline through the region: runs of it become chains of edges, with crossings at their ends. */
-function clipLine(parts: MeshParts, a: number, b: number, startId: number, endId: number): void {
-  const P = line.xy, m = line.count;
+/**
+ * Walks a polyline (xy[0..2m)) through the region: runs of it become chains
+ * of edges with `a` on their left and `b` on their right, with crossings
+ * at their ends; the points it makes between two of its edges are declared
+ * bends. `test.inside` is the region's inside rule (MeshParts.inside, or a
+ * stricter one that refuses points too near a side); a segment with both
+ * ends inside by it is whole. Shared by the Minkowski and the L1/L∞ dual
+ * route.
+ */
+export function clipPolyline(parts: MeshParts, P: Float64Array, m: number, a: number, b: number, startId: number, endId: number,
+  test: { inside(x: number, y: number): boolean }): void {
   let cur = startId;
   // Whether cur is a point this walk made (a bend between the last edge and the next).
   let made = false;
   // Each point is tested once, for both of its segments. A segment with both ends inside by this rule is
   // whole, as clip() would find it: every side is positive at both ends, so no side cuts it.
-  let inP = parts.inside(P[0], P[1]);
+  let inP = test.inside(P[0], P[1]);
   for (let i = 0; i + 1 < m; i++) {
     const px = P[2 * i], py = P[2 * i + 1], qx = P[2 * i + 2], qy = P[2 * i + 3];
-    const inQ = parts.inside(qx, qy), whole = inP && inQ;
+    const inQ = test.inside(qx, qy), whole = inP && inQ;
     inP = inQ;
     if (!whole && !parts.clip(px, py, qx, qy)) {
       if (cur >= 0) throw new Error(`minkowski edge ${a}-${b}: a run lost its way (inside point, no inside segment)`);
