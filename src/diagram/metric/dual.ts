@@ -133,68 +133,66 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   const count = store.count, vert = store.vert, twin = store.twin;
   const live = new Uint8Array(count);
   for (let t = 0; t < count; t++) live[t] = store.isGhost(t) ? 0 : 1;
-  // S[x]: where along the bisector of half-edge x = a→b (as s, pair.ts) the circle through a, b and the
-  // third corner of x's triangle is centred; each pair is set up once for both of its half-edges.
-  const S = new Float64Array(3 * count);
-  for (let x = 0; x < 3 * count; x++) {
-    const y = twin[x];
-    if (y < x || !live[(x / 3) | 0]) continue;
-    if (!pair.set(vert[x], vert[nextOf(x)])) throw new Undecided();
-    S[x] = pair.root(vert[prevOf(x)], 1);
-    if (live[(y / 3) | 0]) S[y] = -pair.root(vert[prevOf(y)], -1);
-    // The certificate (step 3): every edge between two triangles clearly legal.
-    if (Number.isNaN(S[x]) || (live[(y / 3) | 0] && !(S[x] + S[y] > Math.max(pair.allowance(vert[prevOf(x)], 4), pair.allowance(vert[prevOf(y)], 4))))) throw new Undecided();
-  }
-  for (let x = 0; x < 3 * count; x++) if (live[(x / 3) | 0] && !live[(twin[x] / 3) | 0]) {
-    if (!pair.set(vert[x], vert[nextOf(x)])) throw new Undecided();
-    S[x] = pair.root(vert[prevOf(x)], 1);
-    if (Number.isNaN(S[x])) throw new Undecided();
-  }
 
+  // One pass over the edges: for the edge a→b, with c the third corner of its triangle t and d across
+  // (triangle u), where along the bisector (as s, pair.ts) the circles through a, b, c and a, b, d are
+  // centred; the certificate (step 3: the edge clearly legal); the centres (each once, from the first of
+  // its triangle's edges met here); and the edge drawn between them (step 4).
   const sides = new SideTest(region, eps);
   // About 6 points (centres and bends) and 14 half-edges a site on well-spread input: room for them from the start.
   parts.room(6.3 * n + 64, 14.5 * n + 256);
-  // Vertices: each finite centre once, from its first edge's bisector.
   const pointOf = new Int32Array(count).fill(-1);
   const cxy = new Float64Array(2 * count);
-  for (let t = 0; t < count; t++) {
-    if (!live[t]) continue;
-    const x = 3 * t;
-    const finite = Number.isFinite(S[x]);
-    if (finite !== Number.isFinite(S[x + 1]) || finite !== Number.isFinite(S[x + 2])) throw new Undecided();
-    if (!finite) continue;
-    pair.set(vert[x], vert[x + 1]);
-    pair.point(S[x]);
+  // Per triangle: 0 centre not met yet, 1 finite, 2 at infinity.
+  const state = new Uint8Array(count);
+  const centre = (t: number, s: number): void => {
+    const finite = Number.isFinite(s);
+    if (state[t] !== 0) {
+      // Three bisectors of one triangle agree on whether its circle exists.
+      if ((state[t] === 1) !== finite) throw new Undecided();
+      return;
+    }
+    state[t] = finite ? 1 : 2;
+    if (!finite) return;
+    pair.point(s);
     cxy[2 * t] = pair.x; cxy[2 * t + 1] = pair.y;
     if (sides.least(pair.x, pair.y) > 0) pointOf[t] = parts.points.add(pair.x, pair.y);
-  }
-
-  // Edges (step 4).
+  };
   const line = new Float64Array(8);
   const cP = rotated ? region.cx + region.cy : region.cx, cQ = rotated ? region.cx - region.cy : region.cy;
   const reach = (rotated ? Math.SQRT2 : 1) * region.radius * 1.01 + margin;
   for (let x = 0; x < 3 * count; x++) {
-    const y = twin[x];
-    if (y < x || !live[(x / 3) | 0]) continue;
-    const a = vert[x], b = vert[nextOf(x)];
+    const t = (x / 3) | 0;
+    if (!live[t]) continue;
+    const y = twin[x], u = (y / 3) | 0, uLive = live[u] === 1;
+    if (uLive && y < x) continue;
+    const a = vert[x], b = vert[nextOf(x)], c = vert[prevOf(x)];
+    if (!pair.set(a, b)) throw new Undecided();
+    const st = pair.root(c, 1);
+    if (Number.isNaN(st)) throw new Undecided();
+    let su = -Infinity;
+    if (uLive) {
+      const d = vert[prevOf(y)];
+      su = pair.root(d, -1);
+      if (Number.isNaN(su) || !(st - su > Math.max(pair.allowance(c, 4), pair.allowance(d, 4)))) throw new Undecided();
+      centre(u, su);
+    }
+    centre(t, st);
     // Guard cells stay outside the region (see withGuards): their edges are not drawn.
     if (siteOf[a] < 0 || siteOf[b] < 0) continue;
-    pair.set(a, b);
-    const t = (x / 3) | 0, u = live[(y / 3) | 0] ? (y / 3) | 0 : -1;
-    let s0 = u < 0 ? -Infinity : -S[y], s1 = S[x];
+    let s0 = su, s1 = st;
     // Every region point has its K within `reach` of the region centre's: cut open or far ends there.
     const sC = pair.tau * (pair.kIsQ ? cQ : cP), lo = sC - reach, hi = sC + reach;
     const cut0 = s0 < lo, cut1 = s1 > hi;
     if (cut0) s0 = lo;
     if (cut1) s1 = hi;
     if (!(s0 < s1)) continue;
-    let m = 0;
     if (cut0) { pair.point(s0); line[0] = pair.x; line[1] = pair.y; } else { line[0] = cxy[2 * u]; line[1] = cxy[2 * u + 1]; }
-    m = 1;
-    const b0 = pair.tau * pair.Klo, b1 = pair.tau * pair.Khi;
+    let m = 1;
+    const b0 = pair.tau * pair.Klo, b1 = pair.tau * pair.Khi, near = pair.allowance(a, 4);
     for (let i = 0; i < 2; i++) {
       const sb = (i === 0) === (b0 < b1) ? b0 : b1;
-      if (Math.abs(sb - s0) <= pair.allowance(a, 4) || Math.abs(sb - s1) <= pair.allowance(a, 4)) {
+      if (Math.abs(sb - s0) <= near || Math.abs(sb - s1) <= near) {
         // A bend at a vertex, or at the cut of an open end (harmless there, far outside).
         if ((sb === s0 && cut0) || (sb === s1 && cut1)) continue;
         throw new Undecided();
