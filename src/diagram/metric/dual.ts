@@ -223,11 +223,19 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
  * site on a bounding-box side bend on that side).
  */
 class SideTest {
-  private readonly inv: Float64Array;
+  /** Per side: the unit inward normal and offset, so that nx x + ny y + c is the distance inside. */
+  private readonly L: Float64Array;
   private readonly limit: number;
   constructor(private readonly region: ConvexRegion, eps: number) {
-    this.inv = new Float64Array(region.count);
-    for (let j = 0; j < region.count; j++) this.inv[j] = 1 / region.sideLength(j);
+    const m = region.count, r = region.xy;
+    this.L = new Float64Array(3 * m);
+    for (let j = 0; j < m; j++) {
+      const k = j + 1 === m ? 0 : j + 1, len = region.sideLength(j);
+      const nx = -(r[2 * k + 1] - r[2 * j + 1]) / len, ny = (r[2 * k] - r[2 * j]) / len;
+      this.L[3 * j] = nx; this.L[3 * j + 1] = ny; this.L[3 * j + 2] = -(nx * r[2 * j] + ny * r[2 * j + 1]);
+    }
+    // The normalised lines round a little differently from region.side(): that difference (a few ulps of the
+    // coordinates) is far inside the limit, and within the limit the decision is region.side()'s own.
     this.limit = 64 * eps;
   }
 
@@ -236,19 +244,22 @@ class SideTest {
 
   /** The smallest side value of (x, y); throws Undecided within the margin of a side. */
   least(x: number, y: number): number {
-    const region = this.region, r = region.xy, m = region.count;
+    const L = this.L, m = this.region.count, limit = this.limit;
     let least = Infinity;
     for (let j = 0; j < m; j++) {
-      let f = region.side(j, x, y) * this.inv[j];
-      if (Math.abs(f) <= this.limit) {
-        const k = j + 1 === m ? 0 : j + 1;
-        const on = (r[2 * j + 1] === r[2 * k + 1] && y === r[2 * j + 1]) || (r[2 * j] === r[2 * k] && x === r[2 * j]);
-        if (!on) throw new Undecided();
-        f = 0;
-      }
+      let f = L[3 * j] * x + L[3 * j + 1] * y + L[3 * j + 2];
+      if (Math.abs(f) <= limit) f = this.onSide(j, x, y);
       if (f < least) least = f;
     }
     return least;
+  }
+
+  /** Near side j: exactly on it when axis-parallel and matching (0), else Undecided. */
+  private onSide(j: number, x: number, y: number): number {
+    const r = this.region.xy, m = this.region.count, k = j + 1 === m ? 0 : j + 1;
+    const on = (r[2 * j + 1] === r[2 * k + 1] && y === r[2 * j + 1]) || (r[2 * j] === r[2 * k] && x === r[2 * j]);
+    if (!on) throw new Undecided();
+    return 0;
   }
 }
 
