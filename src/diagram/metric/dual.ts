@@ -75,12 +75,15 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   for (let i = 0; i < local.length; i += 2) { local[i] -= ox; local[i + 1] -= oy; }
   const region = new ConvexRegion(local);
   const parts = new MeshParts(region);
-  // Sites 0..n-1 as in tri, then the guards (placed about the local region: they are the route's own sites).
-  const sites = tri.siteXY.slice(0, 2 * n);
-  for (let i = 0; i < 2 * n; i += 2) { sites[i] -= ox; sites[i + 1] -= oy; }
+  // The sites by rank along a space-filling curve (the Euclidean triangulation's order where it has one),
+  // so that the triangles and pairs met one after another read nearby memory, then the guards (placed about
+  // the local region: they are the route's own sites). siteOf: rank -> site, -1 for a guard.
+  const order = tri.implicitLayout()?.siteOfRank ?? hilbertSort(tri.siteXY.subarray(0, 2 * n)).ids;
+  const sites = new Float64Array(2 * n), siteXY = tri.siteXY;
+  for (let r = 0; r < n; r++) { const s = order[r]; sites[2 * r] = siteXY[2 * s] - ox; sites[2 * r + 1] = siteXY[2 * s + 1] - oy; }
   const xy = withGuards(sites, n, region), N = n + GUARDS;
-  const siteOf = new Int32Array(N);
-  for (let r = 0; r < N; r++) siteOf[r] = r < n ? r : -1;
+  const siteOf = new Int32Array(N).fill(-1);
+  for (let r = 0; r < n; r++) siteOf[r] = order[r];
   const rotated = metric === 'Linf';
   const P = new Float64Array(N), Q = new Float64Array(N);
   let M = 0;
@@ -126,10 +129,8 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   };
   store.init(n, n + 1, n + 2);
   for (let g = 3; g < GUARDS; g++) store.insert(n + g);
-  // Insertion along a space-filling curve keeps each walk short: the Euclidean triangulation's rank order is one.
-  const ranks = tri.implicitLayout()?.siteOfRank ?? null;
-  const order = ranks ?? hilbertSort(tri.siteXY.subarray(0, 2 * n)).ids;
-  for (let i = 0; i < n; i++) if (store.insert(order[i]) >= 0) throw new Undecided();
+  // Insertion in rank order: along the curve, so each walk is short.
+  for (let r = 0; r < n; r++) if (store.insert(r) >= 0) throw new Undecided();
   const count = store.count, vert = store.vert, twin = store.twin;
   const live = new Uint8Array(count);
   for (let t = 0; t < count; t++) live[t] = store.isGhost(t) ? 0 : 1;
