@@ -121,25 +121,48 @@ export class TriangleStore {
    * triangulation (Edelsbrunner); the step bound is a guard all the same.
    */
   locate(px: number, py: number): number {
+    const t = this.walk(px, py, false);
+    if (t >= 0) return t;
+    // A triangulation that is not Delaunay (a metric one, see mustFlip) can make the walk cycle; a walk
+    // that tries the edges in random order cannot cycle for ever in any triangulation (Devillers, Pion and
+    // Teillaud 2002, from memory), so it goes next, and the scan stays the last resort.
+    const u = this.walk(px, py, true);
+    return u >= 0 ? u : this.locateByScan(px, py);
+  }
+
+  /** xorshift32 state for the random walk (Marsaglia 2003, from memory). */
+  private seed = 2463534242;
+
+  /** The visibility walk of locate(); -1 when it takes more steps than there are triangles (x4 when random). */
+  private walk(px: number, py: number, random: boolean): number {
     const v = this.vert, tw = this.twin, xy = this.xy;
     let t = this.last;
     let came = -1;
     this.hitEdge = -1;
     this.hitVertex = -1;
-    for (let steps = 0; steps <= this.count; steps++) {
+    const limit = random ? 4 * this.count : this.count;
+    for (let steps = 0; steps <= limit; steps++) {
       const e0 = 3 * t;
       const v0 = v[e0], v1 = v[e0 + 1], v2 = v[e0 + 2];
       if (v0 < 0 || v1 < 0 || v2 < 0) return t;
       const x0 = xy[2 * v0], y0 = xy[2 * v0 + 1];
       const x1 = xy[2 * v1], y1 = xy[2 * v1 + 1];
       const x2 = xy[2 * v2], y2 = xy[2 * v2 + 1];
-      // Start with the edge after the one we came through: it cannot be crossed back.
+      // Start with the edge after the one we came through: it cannot be crossed back. A random walk starts
+      // with either of the other two.
       const skip = came >= e0 && came < e0 + 3 ? came - e0 : -1;
+      let first = skip + 1;
+      if (random) {
+        let x = this.seed;
+        x ^= x << 13; x ^= x >>> 17; x ^= x << 5;
+        this.seed = x;
+        first += x & 1;
+      }
       let o: number;
       let zeros = 0, zeroEdge = -1;
       let moved = false;
       for (let k = 0; k < 3; k++) {
-        const j = (skip + 1 + k) % 3;
+        const j = (first + k) % 3;
         if (j === skip) continue;
         if (j === 0) o = orient2d(x0, y0, x1, y1, px, py);
         else if (j === 1) o = orient2d(x1, y1, x2, y2, px, py);
@@ -160,7 +183,7 @@ export class TriangleStore {
       }
       return t;
     }
-    return this.locateByScan(px, py);
+    return -1;
   }
 
   private sharedZeroVertex(e0: number, px: number, py: number): number {
