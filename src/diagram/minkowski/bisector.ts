@@ -1,4 +1,5 @@
 import { powP, smallInteger } from './norm.js';
+import { length } from '../../core/length.js';
 
 /** (|v_k|/M)^(p-1) sign(v_k) from pk = (|v_k|/M)^p and uk = |v_k|/M. */
 function g(pk: number, uk: number, vk: number): number {
@@ -31,7 +32,7 @@ export class PairFrame {
     this.pi = smallInteger(p);
     this.mx = ax + (bx - ax) / 2;
     this.my = ay + (by - ay) / 2;
-    const dx = bx - ax, dy = by - ay, len = Math.hypot(dx, dy);
+    const dx = bx - ax, dy = by - ay, len = length(dx, dy);
     this.ex = dx / len; this.ey = dy / len;
     this.ux = -this.ey; this.uy = this.ex;
     this.h = len / 2;
@@ -93,7 +94,7 @@ export class PairFrame {
     // pointed the way s grows.
     let tx = -gy, ty = gx;
     if (tx * this.ux + ty * this.uy < 0) { tx = -tx; ty = -ty; }
-    const len = Math.hypot(tx, ty);
+    const len = length(tx, ty);
     this.tx = len > 0 ? tx / len : this.ux;
     this.ty = len > 0 ? ty / len : this.uy;
   }

@@ -1,5 +1,6 @@
 import { orient } from '../../core/predicates.js';
 import { centre, lpCentre } from './centre.js';
+import { length } from '../../core/length.js';
 
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
@@ -29,7 +30,7 @@ export interface LpTriangles {
 export function edgeSpan(xy: Float64Array, vert: Int32Array, twin: Int32Array, cx: Float64Array, cy: Float64Array, far: Uint8Array, x: number): number {
   const a = vert[x], b = vert[nextOf(x)];
   const ax = xy[2 * a], ay = xy[2 * a + 1], bx = xy[2 * b], by = xy[2 * b + 1];
-  const len = Math.hypot(bx - ax, by - ay), ux = -(by - ay) / len, uy = (bx - ax) / len;
+  const len = length(bx - ax, by - ay), ux = -(by - ay) / len, uy = (bx - ax) / len;
   const mx = ax + (bx - ax) / 2, my = ay + (by - ay) / 2;
   const t = (x / 3) | 0, u = (twin[x] / 3) | 0;
   let st = (cx[t] - mx) * ux + (cy[t] - my) * uy, su = (cx[u] - mx) * ux + (cy[u] - my) * uy;

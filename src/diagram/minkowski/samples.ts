@@ -1,4 +1,5 @@
 import type { PairFrame } from './bisector.js';
+import { length } from '../../core/length.js';
 
 /** A growable list of points with their bisector parameter s: the polyline of one edge. */
 export class Polyline {
@@ -43,7 +44,7 @@ function push(s: number, x: number, y: number, t: number, tx: number, ty: number
  * by a right angle or more from the chord.
  */
 function arcBound(dx: number, dy: number, t0x: number, t0y: number, t1x: number, t1y: number): number {
-  const L = Math.hypot(dx, dy);
+  const L = length(dx, dy);
   if (L === 0) return 0;
   const s0 = (dx * t0y - dy * t0x) / L, c0 = (dx * t0x + dy * t0y) / L;
   const s1 = (dx * t1y - dy * t1x) / L, c1 = (dx * t1x + dy * t1y) / L;
@@ -102,8 +103,8 @@ export function sampleEdge(f: PairFrame, s0: number, x0: number, y0: number, t0:
         // An inflection inside can hide from the end tangents: the middle point, with its tangent, must
         // also be near the chord, and each half within the rest of the tolerance by its own bound.
         f.at(ms, lt + (rt - lt) / 2);
-        const dx = rx - lx, dy = ry - ly, len = Math.hypot(dx, dy);
-        const dev = len > 0 ? Math.abs(dx * (f.y - ly) - dy * (f.x - lx)) / len : Math.hypot(f.x - lx, f.y - ly);
+        const dx = rx - lx, dy = ry - ly, len = length(dx, dy);
+        const dev = len > 0 ? Math.abs(dx * (f.y - ly) - dy * (f.x - lx)) / len : length(f.x - lx, f.y - ly);
         const half = Math.max(arcBound(f.x - lx, f.y - ly, ltx, lty, f.tx, f.ty), arcBound(rx - f.x, ry - f.y, f.tx, f.ty, rtx, rty));
         split = dev + half > tol;
       } else f.at(ms, lt + (rt - lt) / 2);
