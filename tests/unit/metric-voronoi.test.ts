@@ -107,6 +107,23 @@ describe('convex polygon clips, worked by hand', () => {
       expect((caught as AmbitError).code).toBe('unsupported-geometry');
     }
   });
+
+  it('a site outside the region whose cell reaches in once, passing a corner by 2e-9, is built (found by the dual-route property)', () => {
+    // Sites a = (0.2080, 0.3733) and b = (0.3813, 0) (below the pentagon). Their L1 bisector is a ray at
+    // y = (ya + yb - (xb - xa)) / 2 = 0.0999999977540 for x <= xa, which passes under the corner (0.1, 0.1):
+    // d(corner, a) - d(corner, b) = -4.49e-9 (worked out with exact rationals), so the corner and both sides
+    // at it are a's, and b's cell meets the region once, from its crossing of the bottom side at x = 0.2234
+    // onwards. The cell-by-cell route once refused it as "separate pieces" (a float projection there).
+    const clip = [0.1, 0.1, 0.9, 0.2, 0.85, 0.7, 0.3, 0.9, 0.05, 0.6];
+    const d = voronoi([0.2079695612192154, 0.3733349069736215, 0.38130447268486023, 0], { metric: 'L1', clip });
+    expect(checkMesh(d.mesh).problems).toEqual([]);
+    expect(d.cellAt(0.1 + 1e-7, 0.1 + 1e-7)).toBe(0);
+    expect(d.cellAt(0.6, 0.2)).toBe(1);
+    const poly = Array.from(d.cellPolygon(1));
+    // b's cell: the crossing of the bottom side, the bottom side's end (0.9, 0.2), and up the right side to y = 0.27333.
+    expect(poly.length).toBe(8);
+    expect(Math.min(...poly.filter((_, i) => i % 2 === 0))).toBeCloseTo(0.2233937868, 9);
+  });
 });
 
 describe('queries under the metric and the tie rule', () => {
