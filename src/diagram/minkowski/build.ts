@@ -10,6 +10,7 @@ import { MeshParts } from './parts.js';
 import { addRing, OUTER } from './ring.js';
 import { guardedTriangulation } from './sentinels.js';
 import { checkSpacing } from '../spacing.js';
+import { length } from '../../core/length.js';
 
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 
@@ -40,7 +41,7 @@ export function minkowskiCells(tri: Triangulation, regionXY: Float64Array, p: nu
   for (let r = 0; r < N; r++) siteOf[r] = guarded.inputOf[layout.siteOfRank ? layout.siteOfRank[r] : r];
   // Centres beyond a million times the guards' reach are all "at infinity" to the region.
   let reach = 0;
-  for (let r = 0; r < N; r++) reach = Math.max(reach, Math.hypot(sites[2 * r] - region.cx, sites[2 * r + 1] - region.cy));
+  for (let r = 0; r < N; r++) reach = Math.max(reach, length(sites[2 * r] - region.cx, sites[2 * r + 1] - region.cy));
   const horizon = 1e6 * (reach + region.radius);
   const { vert, twin, real: T, cx, cy, far } = lpDelaunay(p, sites, layout.vert, layout.twin, layout.real, layout.count, horizon);
   const limit = 3 * T;

@@ -1,5 +1,6 @@
 import type { ConvexRegion } from '../clip.js';
 import { triangulate, type Triangulation } from '../../triangulate/triangulation.js';
+import { length } from '../../core/length.js';
 
 /** How many guard sites ring the input. */
 export const GUARDS = 8;
@@ -37,7 +38,7 @@ export function guardedTriangulation(tri: Triangulation, region: ConvexRegion): 
 /** The n sites of xy (interleaved) followed by GUARDS guard sites, placed as guardedTriangulation explains. */
 export function withGuards(xy: Float64Array, n: number, region: ConvexRegion): Float64Array {
   let spread = 0;
-  for (let i = 0; i < n; i++) spread = Math.max(spread, Math.hypot(xy[2 * i] - region.cx, xy[2 * i + 1] - region.cy));
+  for (let i = 0; i < n; i++) spread = Math.max(spread, length(xy[2 * i] - region.cx, xy[2 * i + 1] - region.cy));
   const G = 4 * (region.radius + spread);
   const all = new Float64Array(2 * (n + GUARDS));
   all.set(xy.subarray(0, 2 * n));
