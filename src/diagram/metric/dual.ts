@@ -27,25 +27,30 @@ class Undecided extends Error {}
  * (build.ts). Both give the same cells; this route computes each Voronoi
  * edge once instead of twice per cell clip.
  *
- * Method (the flip route of the Minkowski engine, with closed forms):
+ * Method:
  * 1. Guard sites around everything (sentinels.ts; the argument that their
  *    cells stay outside the region holds for L1 and L-infinity, both within
- *    a factor sqrt 2 of the Euclidean norm).
- * 2. Lawson flips from the Euclidean Delaunay triangulation. For half-edge
- *    x = a→b with third corner c, S[x] is where along the bisector of a, b
- *    (as s, see pair.ts) the circle through a, b, c is centred (±Infinity
- *    when none exists, with the side that says which circles hold c). The
- *    edge is legal when the Voronoi edge dual to it runs forwards:
- *    S[x] + S[twin x] > 0. Flips happen across strictly convex
- *    quadrilaterals only (exact orient).
- * 3. Certificate: every interior edge clearly legal. Metric circles through
- *    two points are nested on each side of them, so, as in the Euclidean
- *    case, a triangulation whose edges are all locally Delaunay is the
- *    Delaunay triangulation (the walking argument carries over; derived,
+ *    a factor sqrt 2 of the Euclidean norm): every real cell is bounded.
+ * 2. The metric Delaunay triangulation by incremental insertion (sites in
+ *    curve order into the guards' triangulation) with Lawson flips around
+ *    each new site: TriangleStore with its edge test replaced. The edge a→b
+ *    with the new site p on its left and d across goes when d lies inside
+ *    the circle through a, b, p, whose centre is the root of a monotone
+ *    piecewise-linear function along the bisector (pair.ts); a flip only
+ *    ever adds an edge at p, so the flips end. (Lawson flips from the
+ *    Euclidean triangulation cycle: in L1 a site can lie inside every
+ *    circle through two others, and in a narrow strip of sites every
+ *    diagonal is illegal in turn.)
+ * 3. Certificate: every edge between two triangles clearly legal, the
+ *    Voronoi edge dual to a→b running forwards along the bisector from the
+ *    centre across to the centre of a→b's own triangle. Metric circles
+ *    through two points are nested on each side of them, so, as in the
+ *    Euclidean case, a triangulation whose edges are all locally Delaunay is
+ *    the Delaunay triangulation (the walking argument carries over; derived,
  *    and what the Minkowski engine relies on too).
  * 4. Each Voronoi edge is its bisector between the two centres: at most two
  *    bends (exact places), clipped to the region in floating point, where
- *    every point must be clearly inside or outside (else UNDECIDED), then
+ *    every point must be clearly inside or outside (else Undecided), then
  *    linked into one mesh as in the Minkowski engine.
  *
  * Margins: decisions about sites (pair.ts allowance) must clear 2^-45 m,
@@ -58,9 +63,8 @@ export function metricDual(tri: Triangulation, regionXY: Float64Array, metric: E
   try {
     return build(tri, regionXY, metric);
   } catch (e) {
-    if (e instanceof Undecided) return null;
-    // Anything the float route cannot link (a cell in pieces, a guard reaching the region) goes to the
-    // exact path, which gives its own answer or error.
+    // Undecided, or anything the float route cannot link (a cell in pieces, a guard reaching the region):
+    // the exact path then gives its own answer or error.
     if (e instanceof Error) return null;
     throw e;
   }
