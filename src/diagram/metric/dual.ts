@@ -113,7 +113,7 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     if (Number.isNaN(rp)) throw new Undecided();
     if (Number.isFinite(rp)) {
       const g = pair.beyond(rp, d);
-      // G at a root placed within ~200 u m, with slope at most 2: within 4 allowances.
+      // G (within ~180 u m) at a root placed within ~200 u m, G's slope at most 4: within ~980 u m, under 4 allowances.
       const slack = Math.max(pair.allowance(p, 4), pair.allowance(d, 4));
       if (g > slack) return false;
       if (!(g < -slack)) throw new Undecided();
