@@ -1,7 +1,7 @@
 import { InputError } from '../core/errors.js';
 import { carriesWeights, readPoints, type PointInput } from '../core/input.js';
 import { SiteLocator } from '../query/site-locator.js';
-import { Triangulation, triangulate } from '../triangulate/triangulation.js';
+import { deferredTriangulation, Triangulation, triangulate } from '../triangulate/triangulation.js';
 import { ClippedCells } from './cells.js';
 import { clippedVoronoi } from './dual.js';
 import { sweepPoints, sweepTriangulation } from './sweep/sweep.js';
@@ -104,7 +104,8 @@ export function voronoi(input: PointInput | Triangulation, options: VoronoiOptio
     throw new InputError('bad-option', `method '${String(options.method)}' builds Euclidean diagrams only; metric ${String(options.metric)} has its own engine`, -1, 'method');
   }
   if (metric !== 'L2') {
-    const tri = input instanceof Triangulation ? input : triangulate(input);
+    // The metric engines build their own triangulations: the Euclidean one is made only if asked for.
+    const tri = input instanceof Triangulation ? input : deferredTriangulation(input);
     const region = options.clip === undefined ? paddedBounds(tri.siteXY, tri.siteCount) : readClipRegion(options.clip);
     if (typeof metric === 'number') return new MinkowskiVoronoiDiagram(tri, region, metric, options.tolerance);
     return new MetricVoronoiDiagram(tri, region, metric);

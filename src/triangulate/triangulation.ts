@@ -58,11 +58,12 @@ export class Triangulation {
   siteCount: number;
   /** For every input point so far, the site it was merged onto. */
   siteOfInput: Int32Array;
+  private dim: 0 | 1 | 2;
   /**
-   * 2 when the sites span the plane; 1 when they all lie on one line (no
-   * triangles, the hull is a path); 0 for a single site.
+   * The build still to run (see deferredTriangulation): the sites are read,
+   * merged and numbered, the triangles made on first use.
    */
-  dimension: 0 | 1 | 2;
+  private pending: { curve: Uint32Array; order: InsertionOrder } | null = null;
 
   private store: TriangleStore | null = null;
   /** Sites along their line when dimension < 2. */
@@ -91,15 +92,41 @@ export class Triangulation {
   private hidden: Int32Array = new Int32Array(0);
 
   /** @internal Use {@link triangulate}. */
-  constructor(sites: SiteSet, order: InsertionOrder | null, weights: Float64Array | null = null) {
+  constructor(sites: SiteSet, order: InsertionOrder | null, weights: Float64Array | null = null, deferred = false) {
     this.bySite = sites.xy;
     this.rankXY = sites.xy;
     this.siteW = weights;
     this.siteCount = sites.count;
     this.siteOfInput = sites.siteOfInput;
-    this.dimension = 0;
+    this.dim = 0;
     // null: the caller (fromMesh) fills the triangles in itself.
-    if (order !== null) this.build(orderSites(sites.curveOrder, order));
+    if (order === null) return;
+    if (deferred) this.pending = { curve: sites.curveOrder, order };
+    else this.build(orderSites(sites.curveOrder, order));
+  }
+
+  /** Runs the deferred build, if any: every method that reads the triangles calls this first. */
+  private settle(): void {
+    const p = this.pending;
+    if (p === null) return;
+    this.pending = null;
+    this.build(orderSites(p.curve, p.order));
+  }
+
+  /**
+   * 2 when the sites span the plane; 1 when they all lie on one line (no
+   * triangles, the hull is a path); 0 for a single site.
+   */
+  get dimension(): 0 | 1 | 2 { this.settle(); return this.dim; }
+
+  /**
+   * @internal The sites along a space-filling curve (site numbers), as the
+   * build orders them: for work on the sites that wants neighbours near in
+   * memory without the triangles. Null when the build keeps input order.
+   */
+  curveOrder(): Uint32Array | Int32Array | null {
+    if (this.pending) return this.pending.order === 'input' ? null : this.pending.curve;
+    return this.store ? this.siteOfRank : null;
   }
 
   /**
@@ -114,7 +141,7 @@ export class Triangulation {
     const tri = new Triangulation({ xy, count: n, siteOfInput, curveOrder: new Uint32Array(0) }, null);
     const bounded = mesh.faceCount - 1;
     if (bounded === 0) {
-      tri.dimension = n === 1 ? 0 : 1;
+      tri.dim = n === 1 ? 0 : 1;
       tri.path = lexicographic(xy, n);
       return tri;
     }
@@ -149,7 +176,7 @@ export class Triangulation {
     store.count = bounded + outer.length;
     store.last = 0;
     tri.store = store;
-    tri.dimension = 2;
+    tri.dim = 2;
     tri.real = bounded;
     return tri;
   }
@@ -169,7 +196,7 @@ export class Triangulation {
       tri.siteOfRank = ranks.siteOfRank;
     }
     tri.store = store;
-    tri.dimension = 2;
+    tri.dim = 2;
     tri.real = real;
     return tri;
   }
@@ -207,7 +234,7 @@ export class Triangulation {
    * point lies on or above the lower hull, so their power cell is empty.
    * Always empty without weights. Ascending.
    */
-  get hiddenSites(): Int32Array { return this.hidden; }
+  get hiddenSites(): Int32Array { this.settle(); return this.hidden; }
 
   /**
    * @internal Weights in the store's rank order; null when unweighted or
@@ -215,6 +242,7 @@ export class Triangulation {
    * unweighted one).
    */
   rankWeights(): Float64Array | null {
+    this.settle();
     // Without a store, ranks are site numbers (a path); with one, only a weighted build has rank weights.
     if (this.store) return this.rankW;
     return this.siteW !== null && !allEqual(this.siteW) ? this.siteW : null;
@@ -225,6 +253,7 @@ export class Triangulation {
   get mergedCount(): number { return this.siteOfInput.length - this.siteCount; }
 
   get triangleCount(): number {
+    this.settle();
     if (!this.store) return 0;
     this.compact();
     return this.real;
@@ -235,6 +264,7 @@ export class Triangulation {
    * next {@link insert}; do not modify it.
    */
   get triangleSites(): Int32Array {
+    this.settle();
     if (!this.store) return new Int32Array(0);
     this.compact();
     const ranks = this.store.vert.subarray(0, 3 * this.real), site = this.siteOfRank;
@@ -259,7 +289,7 @@ export class Triangulation {
     this.hidden = new Int32Array(0);
     const weighted = this.siteW !== null && !allEqual(this.siteW);
     if (n < 3) {
-      this.dimension = n === 1 ? 0 : 1;
+      this.dim = n === 1 ? 0 : 1;
       this.setPath(lexicographic(xy, n));
       return;
     }
@@ -289,11 +319,11 @@ export class Triangulation {
       if (turn !== 0) break;
     }
     if (k === n) {
-      this.dimension = 1;
+      this.dim = 1;
       this.setPath(lexicographic(xy, n));
       return;
     }
-    this.dimension = 2;
+    this.dim = 2;
     const store = new TriangleStore(local, 2 * n - 2);
     if (lw !== null && xyw !== null) {
       store.setWeights(lw, xyw);
@@ -388,6 +418,7 @@ export class Triangulation {
    * Null when dimension < 2.
    */
   implicitLayout(): { vert: Int32Array; twin: Int32Array; real: number; count: number; xy: Float64Array; siteOfRank: Int32Array | null } | null {
+    this.settle();
     if (!this.store) return null;
     this.compact();
     return { vert: this.store.vert, twin: this.store.twin, real: this.real, count: this.store.count, xy: this.rankXY, siteOfRank: this.siteOfRank };
@@ -399,11 +430,13 @@ export class Triangulation {
    * bounding box, without making the site-ordered copy.
    */
   rankCoordinates(): Float64Array {
+    this.settle();
     return this.rankXY.subarray(0, 2 * this.siteCount);
   }
 
   /** @internal The sites in order along their line when dimension < 2. */
   linearOrder(): Int32Array | null {
+    this.settle();
     return this.path;
   }
 
@@ -413,6 +446,7 @@ export class Triangulation {
    * sites: all of them in order along the line; for one site: that site.
    */
   hull(): Int32Array {
+    this.settle();
     if (!this.store) return this.path!.slice();
     this.compact();
     const v = this.store.vert, tw = this.store.twin;
@@ -441,6 +475,7 @@ export class Triangulation {
     if (!Number.isInteger(site) || site < 0 || site >= this.siteCount) {
       throw new RangeError(`site ${site} is not in 0..${this.siteCount - 1}`);
     }
+    this.settle();
     if (!this.store) {
       const p = this.path!;
       const i = p.indexOf(site);
@@ -479,6 +514,7 @@ export class Triangulation {
 
   /** Undirected edges as pairs (a, b) with a < b. */
   edges(): Int32Array {
+    this.settle();
     if (!this.store) {
       const p = this.path!;
       const out = new Int32Array(2 * Math.max(0, p.length - 1));
@@ -518,6 +554,7 @@ export class Triangulation {
     const batch = readPoints(points, true);
     const m = batch.length >> 1;
     if (m === 0) return new Int32Array(0);
+    this.settle();
     const merged = mergeDuplicates(batch);
     const result = new Int32Array(m);
     const siteOfBatch = new Int32Array(merged.count);
@@ -599,6 +636,7 @@ export class Triangulation {
    * face is the outer one, walked clockwise along the hull.
    */
   toMesh(): HalfEdgeMesh {
+    this.settle();
     const vertexXY = this.siteXY.slice(0, 2 * this.siteCount);
     if (!this.store) return pathMesh(vertexXY, this.path!);
     this.compact();
@@ -703,6 +741,17 @@ export function triangulate(points: PointInput, options: TriangulateOptions = {}
   const weights = readWeights(points, options.weights, xy.length >> 1);
   const sites = mergeDuplicates(xy);
   return new Triangulation(sites, order, weights && weightsOfSites(weights, sites));
+}
+
+/**
+ * @internal triangulate() for callers that may never read the triangles:
+ * the points are read, checked and merged now (errors are thrown here), the
+ * Delaunay build runs on first use. The L1/L-infinity and Minkowski diagrams
+ * build their own triangulations and need only the sites, unless a query or
+ * a fallback asks for the Euclidean one.
+ */
+export function deferredTriangulation(points: PointInput): Triangulation {
+  return new Triangulation(mergeDuplicates(readPoints(points)), 'brio', null, true);
 }
 
 /** Each site's weight: the largest among the points merged onto it (the others would be hidden by it). */

@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { AmbitError, checkMesh, InputError, MetricVoronoiDiagram, voronoi, VoronoiDiagram } from '../../src/index.js';
+import { mulberry32 } from '../../src/core/random.js';
+import { dualRoute } from '../../src/diagram/metric/dual.js';
 
 /** The cell polygon as [x, y] pairs. */
 const cell = (d: { cellPolygon(s: number): Float64Array }, s: number): number[][] => {
@@ -187,5 +189,58 @@ describe('metric option', () => {
       expect(d).not.toBeInstanceOf(MetricVoronoiDiagram);
       expect(checkMesh(d.mesh).problems).toEqual([]);
     }
+  });
+});
+
+describe('the precision limit under other metrics (the Euclidean triangulation is built only when needed)', () => {
+  // The documented limit (src/diagram/dual.ts MIN_SPACING, README): sites closer (Euclidean) than 2^-40 times
+  // the largest coordinate of the sites and the region are refused with 'too-close', in every metric. The dual
+  // route settles the check from its own closest metric pair where that clears the limit by the norm's factor
+  // (Euclidean >= L1 / sqrt 2, >= L-infinity), and asks the Euclidean triangulation otherwise. Both sides of
+  // the limit, in directions where the route's bound settles it (3-4-5: L1 1.4 times the Euclidean distance;
+  // 24-7-25: L-infinity 0.96 times it) and where it does not; axis-aligned and diagonal pairs are two-dimensional
+  // ties the dual route leaves to the cell route.
+  // Spread sites in general position (no shared coordinates, so the dual route can take them).
+  const random = mulberry32(20261202), grid: number[] = [];
+  for (let i = 0; i < 150; i++) grid.push(100 * (random() / 2 ** 32), 100 * (random() / 2 ** 32));
+  const clip = { minX: 0, minY: 0, maxX: 100, maxY: 100 };
+  const limit = 2 ** -40 * 100;
+  const cases: [string, number, number, boolean][] = [];
+  for (const f of [0.9, 1.1]) {
+    cases.push([`a 3-4-5 pair at ${f} of the limit`, 0.6 * f * limit, 0.8 * f * limit, true]);
+    cases.push([`a 24-7-25 pair at ${f} of the limit`, 0.96 * f * limit, 0.28 * f * limit, true]);
+    cases.push([`an axis pair at ${f} of the limit`, f * limit, 0, false]);
+    cases.push([`a diagonal pair at ${f} of the limit`, (f * limit) / Math.SQRT2, (f * limit) / Math.SQRT2, false]);
+  }
+  for (const metric of ['L1', 'Linf', 3] as const) {
+    for (const [label, dx, dy, general] of cases) {
+      it(`${String(metric)}, ${label}`, () => {
+        const x = 41.3, y = 52.9, points = [...grid, x, y, x + dx, y + dy];
+        const d = Math.hypot(x + dx - x, y + dy - y), n = points.length / 2;
+        let err: unknown = null;
+        const built = dualRoute.built;
+        try { voronoi(points, { metric, clip }); } catch (e) { err = e; }
+        // In general position the dual route must have built the mesh, so that its own bound is what is tested.
+        if (metric !== 3 && general) expect(dualRoute.built).toBe(built + 1);
+        if (d < limit) {
+          expect(err).toBeInstanceOf(InputError);
+          expect((err as InputError).code).toBe('too-close');
+          expect((err as InputError).message).toMatch(new RegExp(`sites ${n - 2} and ${n - 1}`));
+        } else {
+          expect(err).toBeNull();
+        }
+      });
+    }
+  }
+
+  it('the triangulation the diagram reports is still the Delaunay triangulation of its sites', () => {
+    const d = voronoi(grid, { metric: 'L1', clip });
+    const t = d.triangulation;
+    expect(t.siteCount).toBe(grid.length / 2);
+    expect(t.dimension).toBe(2);
+    expect(checkMesh(t.toMesh(), { delaunay: 'global' }).problems).toEqual([]);
+    // It grows like any other (its first use built it).
+    expect(Array.from(t.insert([[50.25, 50.75]]))).toEqual([grid.length / 2]);
+    expect(checkMesh(t.toMesh(), { delaunay: 'global' }).problems).toEqual([]);
   });
 });

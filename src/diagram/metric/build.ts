@@ -35,11 +35,17 @@ const BOX_LABEL = -(2 ** 30);
  */
 export function metricCells(tri: Triangulation, region: Float64Array, metric: ExactMetric): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
   const n = tri.siteCount;
-  checkSpacing(tri, region);
   if (dualRoute.enabled) {
     const dual = metricDual(tri, region, metric);
-    if (dual) { dualRoute.taken++; return dual; }
+    if (dual) {
+      dualRoute.built++;
+      // The route's own bound settles the spacing check on spread-out sites; else it needs the Euclidean edges.
+      if (!dual.spaced) checkSpacing(tri, region);
+      dualRoute.taken++;
+      return dual;
+    }
   }
+  checkSpacing(tri, region);
   const edges = tri.edges();
   // Cells in the order of a space-filling curve, and the sites renumbered by
   // it (rank k is site order[k]), so that a cell's neighbourhood lies in

@@ -11,6 +11,7 @@ import { TriangleStore } from '../../triangulate/store.js';
 import { hilbertSort } from '../../core/hilbert.js';
 import type { ExactMetric } from './bisector.js';
 import { PairBisector } from './pair.js';
+import { spacingLimit } from '../spacing.js';
 
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
@@ -59,7 +60,7 @@ class Undecided extends Error {}
  * crossings and corners must clear 2^-38 M, M the largest coordinate of
  * everything (they are few: only the boundary's neighbourhood).
  */
-export function metricDual(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } | null {
+export function metricDual(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric): DualResult | null {
   try {
     return build(tri, regionXY, metric);
   } catch (e) {
@@ -70,7 +71,17 @@ export function metricDual(tri: Triangulation, regionXY: Float64Array, metric: E
   }
 }
 
-function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
+/**
+ * The mesh, and whether the sites are surely far enough apart for the
+ * spacing check (spacing.ts): the closest pair in the metric is an edge of
+ * its Delaunay triangulation, and the Euclidean distance is at least 1/sqrt 2
+ * of the L1 one and at least the L-infinity one, so a closest metric pair
+ * clear of the limit by that factor settles it without the Euclidean
+ * triangulation.
+ */
+interface DualResult { mesh: HalfEdgeMesh; faceOfSite: Int32Array; spaced: boolean }
+
+function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric): DualResult {
   const n = tri.siteCount;
   if (n < 2) throw new Undecided();
   // Everything is computed relative to an origin (see localOrigin) and moved back at the end.
@@ -82,7 +93,7 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   // The sites by rank along a space-filling curve (the Euclidean triangulation's order where it has one),
   // so that the triangles and pairs met one after another read nearby memory, then the guards (placed about
   // the local region: they are the route's own sites). siteOf: rank -> site, -1 for a guard.
-  const order = tri.implicitLayout()?.siteOfRank ?? hilbertSort(tri.siteXY.subarray(0, 2 * n)).ids;
+  const order = tri.curveOrder() ?? hilbertSort(tri.siteXY.subarray(0, 2 * n)).ids;
   const sites = new Float64Array(2 * n), siteXY = tri.siteXY;
   for (let r = 0; r < n; r++) { const s = order[r]; sites[2 * r] = siteXY[2 * s] - ox; sites[2 * r + 1] = siteXY[2 * s + 1] - oy; }
   const xy = withGuards(sites, n, region), N = n + GUARDS;
@@ -166,6 +177,8 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   const line = new Float64Array(8);
   const cP = rotated ? region.cx + region.cy : region.cx, cQ = rotated ? region.cx - region.cy : region.cy;
   const reach = (rotated ? Math.SQRT2 : 1) * region.radius * 1.01 + margin;
+  // The smallest |dP| + |dQ| of two real sites joined by an edge: the L1 distance, or twice the L-infinity one.
+  let closest = Infinity;
   for (let x = 0; x < 3 * count; x++) {
     const t = (x / 3) | 0;
     if (!live[t]) continue;
@@ -185,6 +198,8 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     centre(t, st);
     // Guard cells stay outside the region (see withGuards): their edges are not drawn.
     if (siteOf[a] < 0 || siteOf[b] < 0) continue;
+    const gap = Math.abs(P[a] - P[b]) + Math.abs(Q[a] - Q[b]);
+    if (gap < closest) closest = gap;
     let s0 = su, s1 = st;
     // Every region point has its K within `reach` of the region centre's: cut open or far ends there.
     const sC = pair.tau * (pair.kIsQ ? cQ : cP), lo = sC - reach, hi = sC + reach;
@@ -217,7 +232,11 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     const v = out.mesh.vertexXY;
     for (let i = 0; i < v.length; i += 2) { v[i] += ox; v[i + 1] += oy; }
   }
-  return out;
+  // Euclidean >= L1 / sqrt 2 = closest / sqrt 2 (L1), or >= L-infinity = closest / 2 (in the rotated frame);
+  // the factor 1.01 covers the rounding of the rotated frame and of the sums (under 2^-50 M against a limit of 2^-40 M).
+  const { limit } = spacingLimit(tri.siteXY, n, regionXY);
+  const spaced = closest / (rotated ? 2 : Math.SQRT2) > 1.01 * limit;
+  return { mesh: out.mesh, faceOfSite: out.faceOfSite, spaced };
 }
 
 /**
@@ -304,10 +323,11 @@ function checkCorners(region: ConvexRegion, P: Float64Array, Q: Float64Array, si
 
 /**
  * @internal Off makes every exact-metric diagram take the cell-by-cell
- * exact path; `taken` counts the diagrams the dual route built (tests
- * compare the two routes and check that the dual one ran).
+ * exact path; `built` counts the meshes the dual route made, `taken` those
+ * of them returned (not refused by the spacing check after it). Tests
+ * compare the two routes and check that the dual one ran.
  */
-export const dualRoute = { enabled: true, taken: 0 };
+export const dualRoute = { enabled: true, built: 0, taken: 0 };
 
 /**
  * An origin for the route's arithmetic: the region's vertex mean when every

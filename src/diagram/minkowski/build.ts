@@ -30,10 +30,11 @@ const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
  */
 export function minkowskiCells(tri: Triangulation, regionXY: Float64Array, p: number, tol: number): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
   const n = tri.siteCount;
-  checkSpacing(tri, regionXY);
   const region = new ConvexRegion(regionXY);
   const parts = new MeshParts(region);
+  // The guarded triangulation serves the spacing check too: the input's own one is then never needed here.
   const guarded = guardedTriangulation(tri, region);
+  checkSpacing(guarded.tri, regionXY, n);
   const layout = guarded.tri.implicitLayout()!;
   const sites = layout.xy;
   // Rank -> input site (-1 for a guard).
