@@ -175,6 +175,10 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     if (sides.least(pair.x, pair.y) > 0) pointOf[t] = parts.points.add(pair.x, pair.y);
   };
   const line = new Float64Array(8);
+  // Per triangle half-edge x (a = vert[x]): the mesh half-edge arriving at x's triangle's centre along the
+  // Voronoi edge dual to x, with a on its left; -1 when that edge does not reach the centre.
+  const arrive = new Int32Array(3 * count).fill(-1);
+  const origin = parts.origin;
   const cP = rotated ? region.cx + region.cy : region.cx, cQ = rotated ? region.cx - region.cy : region.cy;
   const reach = (rotated ? Math.SQRT2 : 1) * region.radius * 1.01 + margin;
   // The smallest |dP| + |dQ| of two real sites joined by an edge: the L1 distance, or twice the L-infinity one.
@@ -221,13 +225,22 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     }
     if (cut1) { pair.point(s1); line[2 * m] = pair.x; line[2 * m + 1] = pair.y; } else { line[2 * m] = cxy[2 * t]; line[2 * m + 1] = cxy[2 * t + 1]; }
     m++;
-    clipPolyline(parts, line, m, a, b, cut0 ? -1 : pointOf[u], cut1 ? -1 : pointOf[t], sides);
+    const k0 = origin.count >> 1;
+    const start = cut0 ? -1 : pointOf[u], end = cut1 ? -1 : pointOf[t];
+    clipPolyline(parts, line, m, a, b, start, end, sides);
+    // The chain runs u -> t with a on its left: its last edge arrives at t along (a on the left), its first
+    // arrives at u backwards (b on the left, b = vert[y]).
+    const k1 = origin.count >> 1;
+    if (k1 > k0) {
+      if (end >= 0 && origin.a[2 * k1 - 1] === end) arrive[x] = 2 * k1 - 2;
+      if (start >= 0 && origin.a[2 * k0] === start) arrive[y] = 2 * k0 + 1;
+    }
   }
   checkCrossings(parts, eps);
   checkCorners(region, P, Q, siteOf, rotated, margin);
   addRing(parts, OUTER, () => { throw new Undecided(); });
   const outside = (rank: number): boolean => !parts.inside(xy[2 * rank], xy[2 * rank + 1]);
-  const out = linkMesh(parts, n, siteOf, outside);
+  const out = linkMesh(parts, n, siteOf, outside, successors(arrive, pointOf, live, count, origin.count));
   if (ox !== 0 || oy !== 0) {
     const v = out.mesh.vertexXY;
     for (let i = 0; i < v.length; i += 2) { v[i] += ox; v[i + 1] += oy; }
@@ -237,6 +250,26 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   const { limit } = spacingLimit(tri.siteXY, n, regionXY);
   const spaced = closest / (rotated ? 2 : Math.SQRT2) > 1.01 * limit;
   return { mesh: out.mesh, faceOfSite: out.faceOfSite, spaced };
+}
+
+/**
+ * The successors known from the triangles, for linkMesh: at the centre of a
+ * triangle (a, b, c), counter-clockwise, the half-edge arriving along the
+ * edge of a and b with a on its left goes on along the edge of c and a, the
+ * other way round: the twin of the one arriving there with c on its left.
+ * Only at centres that all three edges reach (every centre inside the
+ * region, as guard cells stay outside it); the rest are searched.
+ */
+function successors(arrive: Int32Array, pointOf: Int32Array, live: Uint8Array, count: number, H: number): Int32Array {
+  const next = new Int32Array(H).fill(-1);
+  for (let t = 0; t < count; t++) {
+    if (!live[t] || pointOf[t] < 0) continue;
+    const e0 = arrive[3 * t], e1 = arrive[3 * t + 1], e2 = arrive[3 * t + 2];
+    if (e0 < 0 || e1 < 0 || e2 < 0) continue;
+    // prevOf(3t) = 3t + 2, prevOf(3t + 1) = 3t, prevOf(3t + 2) = 3t + 1.
+    next[e0] = e2 ^ 1; next[e1] = e0 ^ 1; next[e2] = e1 ^ 1;
+  }
+  return next;
 }
 
 /**

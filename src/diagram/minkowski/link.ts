@@ -15,18 +15,26 @@ import { OUTER } from './ring.js';
  * polyline) there is nothing to search: the successor is the next edge of
  * the run, so the search, and its index, covers the other points only.
  *
+ * A caller that knows successors itself (the L1/L-infinity dual route, at
+ * Voronoi vertices, from the triangles) passes them in `known` (length the
+ * half-edge count, -1 where unknown): those half-edges are not searched.
+ * At any point, either every half-edge arriving is known or none is, since
+ * the search at a point needs every half-edge leaving it.
+ *
  * Faces are renumbered from ranks to input sites (`siteOf`); the outer
  * face, OUTER while building, becomes n, the site count. A face whose edges form more than one
  * cycle (a cell meeting the region in separate pieces) is refused.
  */
-export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOutside: (rank: number) => boolean): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
+export function linkMesh(
+  parts: MeshParts, n: number, siteOf: Int32Array, isOutside: (rank: number) => boolean, known: Int32Array | null = null,
+): { mesh: HalfEdgeMesh; faceOfSite: Int32Array } {
   const H = parts.origin.count, V = parts.points.count;
   // The lists become the mesh's arrays: views when they are nearly full (see MeshParts.room), since copying
   // costs about as much as filling them; `face` is renumbered in place below, so `parts` is spent.
   const tight = <A extends Int32Array | Float64Array>(a: A, k: number): A => (k < 0.9 * a.length ? a.slice(0, k) : a.subarray(0, k)) as A;
   const origin = tight(parts.origin.a, H), rankFace = tight(parts.face.a, H);
   const xy = tight(parts.points.xy, 2 * V);
-  const next = new Int32Array(H), twin = new Int32Array(H);
+  const next = known ?? new Int32Array(H), twin = new Int32Array(H);
   for (let e = 0; e < H; e++) twin[e] = e ^ 1;
   // At a bend the successor is known (edges k and k + 1 of a run: 2k goes on to 2k + 2, 2k + 3 back to 2k + 1).
   const runs = parts.bends.a, R = parts.bends.count;
@@ -39,7 +47,7 @@ export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOuts
   }
   // The rest end at the other points; their twins are the half-edges leaving those, by which the points are
   // indexed: `slot` (1 + a point's index) is touched only at them.
-  const ends = endingElsewhere(runs, R, H >> 1), G = ends.length;
+  const ends = endingElsewhere(runs, R, H >> 1, known), G = ends.length;
   const slot = new Int32Array(V), off = new Int32Array(G + 1), out = new Int32Array(G);
   let used = 0;
   for (let i = 0; i < G; i++) {
@@ -109,21 +117,23 @@ export function linkMesh(parts: MeshParts, n: number, siteOf: Int32Array, isOuts
  * k > f: so 2k (along) ends elsewhere only at k = l, 2k + 1 (back) only at
  * k = f; both half-edges of an edge outside every run do.
  */
-function endingElsewhere(runs: Int32Array, R: number, E: number): Int32Array {
+function endingElsewhere(runs: Int32Array, R: number, E: number, known: Int32Array | null): Int32Array {
   let inRuns = 0;
   for (let i = 0; i < R; i += 2) inRuns += runs[i + 1] - runs[i] + 1;
   const ends = new Int32Array(2 * (E - inRuns) + R);
   let c = 0, k = 0;
+  // Half-edges whose successor is known are left out.
+  const add = (e: number): void => { if (known === null || known[e] < 0) ends[c++] = e; };
   for (let i = 0; i <= R; i += 2) {
     const f = i < R ? runs[i] : E;
-    for (; k < f; k++) { ends[c++] = 2 * k; ends[c++] = 2 * k + 1; }
+    for (; k < f; k++) { add(2 * k); add(2 * k + 1); }
     if (i === R) break;
     const l = runs[i + 1];
-    ends[c++] = 2 * f + 1;
-    ends[c++] = 2 * l;
+    add(2 * f + 1);
+    add(2 * l);
     k = l + 1;
   }
-  return ends;
+  return ends.subarray(0, c);
 }
 
 /** Among the half-edges out[lo..hi) leaving e's end with face f on the left, the first clockwise from e's twin t. */
