@@ -100,18 +100,18 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   const siteOf = new Int32Array(N).fill(-1);
   for (let r = 0; r < n; r++) siteOf[r] = order[r];
   const rotated = metric === 'Linf';
-  const P = new Float64Array(N), Q = new Float64Array(N);
+  // The frame coordinates (P, Q) interleaved: the sites themselves for L1.
+  const F = rotated ? new Float64Array(2 * N) : xy;
   let M = 0;
   for (let r = 0; r < N; r++) {
     const x = xy[2 * r], y = xy[2 * r + 1];
-    P[r] = rotated ? x + y : x;
-    Q[r] = rotated ? x - y : y;
-    M = Math.max(M, Math.abs(P[r]), Math.abs(Q[r]));
+    if (rotated) { F[2 * r] = x + y; F[2 * r + 1] = x - y; }
+    M = Math.max(M, Math.abs(F[2 * r]), Math.abs(F[2 * r + 1]));
   }
   for (let i = 0; i < local.length; i++) M = Math.max(M, 2 * Math.abs(local[i]));
   const eps = 2 ** -44 * M;
   const margin = 16 * eps;
-  const pair = new PairBisector(P, Q, rotated);
+  const pair = new PairBisector(F, rotated);
 
   // The metric Delaunay triangulation (step 2).
   const store = new TriangleStore(xy, 2 * N + 8);
@@ -202,7 +202,7 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     centre(t, st);
     // Guard cells stay outside the region (see withGuards): their edges are not drawn.
     if (siteOf[a] < 0 || siteOf[b] < 0) continue;
-    const gap = Math.abs(P[a] - P[b]) + Math.abs(Q[a] - Q[b]);
+    const gap = Math.abs(F[2 * a] - F[2 * b]) + Math.abs(F[2 * a + 1] - F[2 * b + 1]);
     if (gap < closest) closest = gap;
     let s0 = su, s1 = st;
     // Every region point has its K within `reach` of the region centre's: cut open or far ends there.
@@ -237,7 +237,7 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     }
   }
   checkCrossings(parts, eps);
-  checkCorners(region, P, Q, siteOf, rotated, margin);
+  checkCorners(region, F, siteOf, rotated, margin);
   addRing(parts, OUTER, () => { throw new Undecided(); });
   const outside = (rank: number): boolean => !parts.inside(xy[2 * rank], xy[2 * rank + 1]);
   const out = linkMesh(parts, n, siteOf, outside, successors(arrive, pointOf, live, count, origin.count));
@@ -340,14 +340,14 @@ function checkCrossings(parts: MeshParts, eps: number): void {
  * cell boundary passes within the margin of it, and which cell the float
  * clip gives it is a guess. Brute force, a few corners times n.
  */
-function checkCorners(region: ConvexRegion, P: Float64Array, Q: Float64Array, siteOf: Int32Array, rotated: boolean, margin: number): void {
+function checkCorners(region: ConvexRegion, F: Float64Array, siteOf: Int32Array, rotated: boolean, margin: number): void {
   for (let j = 0; j < region.count; j++) {
     const x = region.xy[2 * j], y = region.xy[2 * j + 1];
     const cp = rotated ? x + y : x, cq = rotated ? x - y : y;
     let best = Infinity, second = Infinity;
-    for (let r = 0; r < P.length; r++) {
+    for (let r = 0; r < siteOf.length; r++) {
       if (siteOf[r] < 0) continue;
-      const d = Math.abs(P[r] - cp) + Math.abs(Q[r] - cq);
+      const d = Math.abs(F[2 * r] - cp) + Math.abs(F[2 * r + 1] - cq);
       if (d < best) { second = best; best = d; } else if (d < second) second = d;
     }
     if (!(second - best > 4 * margin)) throw new Undecided();

@@ -33,9 +33,8 @@ export class PairBisector {
   x = 0; y = 0;
 
   constructor(
-    /** Frame coordinates of the sites, by index. */
-    private readonly P: Float64Array,
-    private readonly Q: Float64Array,
+    /** Frame coordinates of the sites, interleaved (P, Q) by index: for L1 the sites' own array. */
+    private readonly F: Float64Array,
     /** True for L-infinity: the frame map (x + y, x - y) reverses orientation and point() maps back. */
     private readonly rotated: boolean,
   ) {}
@@ -53,20 +52,20 @@ export class PairBisector {
    * (256 u m) for signs of G, times `k` for sums of such values.
    */
   allowance(c: number, k: number): number {
-    const mc = Math.max(this.m, Math.abs(this.P[c]), Math.abs(this.Q[c]));
+    const mc = Math.max(this.m, Math.abs(this.F[2 * c]), Math.abs(this.F[2 * c + 1]));
     return k * 2 ** -45 * mc;
   }
 
   /** Sets up the bisector of sites a and b; false when the pair is not clearly in general position. */
   set(a: number, b: number): boolean {
-    const P = this.P, Q = this.Q;
-    this.m = Math.max(Math.abs(P[a]), Math.abs(Q[a]), Math.abs(P[b]), Math.abs(Q[b]));
+    const F = this.F, Pa = F[2 * a], Qa = F[2 * a + 1], Pb = F[2 * b], Qb = F[2 * b + 1];
+    this.m = Math.max(Math.abs(Pa), Math.abs(Qa), Math.abs(Pb), Math.abs(Qb));
     const eps = 2 ** -45 * this.m;
-    const dP = P[b] - P[a], dQ = Q[b] - Q[a];
+    const dP = Pb - Pa, dQ = Qb - Qa;
     const aP = Math.abs(dP), aQ = Math.abs(dQ);
     if (!(aP > eps && aQ > eps && Math.abs(aP - aQ) > eps)) return false;
     const kIsQ = (this.kIsQ = aP > aQ);
-    const Da = kIsQ ? P[a] : Q[a], Db = kIsQ ? P[b] : Q[b], Ka = kIsQ ? Q[a] : P[a], Kb = kIsQ ? Q[b] : P[b];
+    const Da = kIsQ ? Pa : Qa, Db = kIsQ ? Pb : Qb, Ka = kIsQ ? Qa : Pa, Kb = kIsQ ? Qb : Pb;
     const sD = Db > Da ? 1 : -1, sK = Kb > Ka ? 1 : -1, dK = Kb - Ka;
     this.Da = Da; this.Ka = Ka;
     this.Dlo = (Da + Db + sD * dK) / 2;
@@ -105,7 +104,7 @@ export class PairBisector {
    */
   root(c: number, left: number): number {
     const kIsQ = this.kIsQ;
-    const Dc = kIsQ ? this.P[c] : this.Q[c], Kc = kIsQ ? this.Q[c] : this.P[c];
+    const Pc = this.F[2 * c], Qc = this.F[2 * c + 1], Dc = kIsQ ? Pc : Qc, Kc = kIsQ ? Qc : Pc;
     const ks = this.ks, Klo = this.Klo, Khi = this.Khi;
     // The breakpoints in order, without a sort: Klo < Khi, Kc anywhere, kD (if any) strictly between the bends.
     let m = 0;
@@ -149,7 +148,7 @@ export class PairBisector {
    */
   beyond(s: number, c: number): number {
     const k = this.tau * s, D = this.D(k);
-    const Dc = this.kIsQ ? this.P[c] : this.Q[c], Kc = this.kIsQ ? this.Q[c] : this.P[c];
+    const Pc = this.F[2 * c], Qc = this.F[2 * c + 1], Dc = this.kIsQ ? Pc : Qc, Kc = this.kIsQ ? Qc : Pc;
     return Math.abs(D - Dc) + Math.abs(k - Kc) - Math.abs(D - this.Da) - Math.abs(k - this.Ka);
   }
 
