@@ -1,5 +1,5 @@
 // One-off measurement (not a test): the cost of a metric diagram over the Euclidean one on the same sites, with
-// the two builds interleaved (Euclidean, metric, Euclidean, metric, ...), so that both see
+// the two builds interleaved (Euclidean, metric, metric, Euclidean, ...), so that both see
 // the machine in the same state; the harness (run.mjs) times one case after the other, and on a shared machine
 // the Euclidean rows alone moved by a factor of two between runs. With `gc` last, a full GC precedes every build
 // (each then starts from a shrunk heap and pays for fresh memory, as a one-off build in a new process does);
@@ -40,8 +40,10 @@ for (const n of sizes) {
     const ratios = [], cpuRatios = [];
     let eMin = Infinity, mMin = Infinity;
     for (let r = 0; r < rounds; r++) {
-      const e = measure(() => voronoi(points, { clip }));
-      const m = measure(() => voronoi(points, opts));
+      // The order alternates between rounds: in same-process A/B runs the first build of a pair measured slower.
+      let e, m;
+      if (r % 2 === 0) { e = measure(() => voronoi(points, { clip })); m = measure(() => voronoi(points, opts)); }
+      else { m = measure(() => voronoi(points, opts)); e = measure(() => voronoi(points, { clip })); }
       ratios.push(m.wall / e.wall); cpuRatios.push(m.cpu / e.cpu);
       eMin = Math.min(eMin, e.wall); mMin = Math.min(mMin, m.wall);
     }
