@@ -1,10 +1,6 @@
 import { powP, smallInteger } from './norm.js';
+import { powerSlope as g } from './powers.js';
 import { length } from '../../core/length.js';
-
-/** (|v_k|/M)^(p-1) sign(v_k) from pk = (|v_k|/M)^p and uk = |v_k|/M. */
-function g(pk: number, uk: number, vk: number): number {
-  return uk > 0 ? (vk < 0 ? -pk : pk) / uk : 0;
-}
 
 /**
  * The Lp bisector of two sites a, b (1 < p < ∞) in the frame of the pair:
