@@ -76,6 +76,9 @@ export class PairFrame {
       if (f < 0) lo = t; else hi = t;
       const df = (p * inv) * (gx * ex + gy * ey);
       let next = t - f / df;
+      // A step below half an ulp of t: t is the root to rounding. (f's rounding can have moved a bracket end
+      // onto t, and the step would then leave the bracket and bisect, half a step back from the root.)
+      if (next === t) break;
       if (!(next > lo && next < hi)) next = lo + (hi - lo) / 2;
       const moved = Math.abs(next - t);
       t = next;
