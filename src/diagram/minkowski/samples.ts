@@ -86,12 +86,6 @@ function halfBound(x0: number, y0: number, cx: number, cy: number, L: number, q0
   return mid + arcBound(dx, dy, t0x, t0y, t1x, t1y);
 }
 
-/** dt/ds along the bisector where its unit tangent is (tx, ty) (which points towards larger s); 0 where that is steep. */
-function slope(f: PairFrame, tx: number, ty: number): number {
-  const ds = tx * f.ux + ty * f.uy;
-  return ds > 1e-3 ? (tx * f.ex + ty * f.ey) / ds : 0;
-}
-
 /** Whether u, v, w (in this order) pass the value c. */
 function cut(u: number, v: number, w: number, c: number): boolean { return (u - c) * (v - c) <= 0 || (v - c) * (w - c) <= 0; }
 
@@ -165,8 +159,7 @@ export function sampleEdge(f: PairFrame, s0: number, x0: number, y0: number, t0:
       // (its inflections lie at |s| of a few h) then stay at the chord's own scale, where the middle point
       // sees them; without this a long ray hid an S bend near its inner end (found by the live cKDTree test).
       const near = Math.min(Math.abs(ls), Math.abs(rs)), far = Math.max(Math.abs(ls), Math.abs(rs));
-      // Cubic (Hermite) interpolation of t from the ends' slopes: Newton starts closer (a fifth fewer steps).
-      f.at(ms, lt + (rt - lt) / 2 + ((rs - ls) / 8) * (slope(f, ltx, lty) - slope(f, rtx, rty)));
+      f.at(ms, lt + (rt - lt) / 2);
       let split = far > 2 * Math.max(near, f.h);
       if (!split) {
         // An inflection inside can hide from the end tangents: the chord is judged by its middle point, with
