@@ -1,10 +1,6 @@
 import { powP, smallInteger } from './norm.js';
+import { powerSlope as g } from './powers.js';
 import { length } from '../../core/length.js';
-
-/** (|v_k|/M)^(p-1) sign(v_k) from pk = (|v_k|/M)^p and uk = |v_k|/M. */
-function g(pk: number, uk: number, vk: number): number {
-  return uk > 0 ? (vk < 0 ? -pk : pk) / uk : 0;
-}
 
 /**
  * The Lp bisector of two sites a, b (1 < p < ∞) in the frame of the pair:
@@ -80,6 +76,9 @@ export class PairFrame {
       if (f < 0) lo = t; else hi = t;
       const df = (p * inv) * (gx * ex + gy * ey);
       let next = t - f / df;
+      // A step below half an ulp of t: t is the root to rounding. (f's rounding can have moved a bracket end
+      // onto t, and the step would then leave the bracket and bisect, half a step back from the root.)
+      if (next === t) break;
       if (!(next > lo && next < hi)) next = lo + (hi - lo) / 2;
       const moved = Math.abs(next - t);
       t = next;

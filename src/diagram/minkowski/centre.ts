@@ -1,10 +1,12 @@
 import { PairFrame } from './bisector.js';
-import { lp, lpLength, lpNorm } from './norm.js';
+import { lpLength, smallInteger } from './norm.js';
+import { PowerPoint } from './powers.js';
 
 /** Result of lpCentre: the centre's coordinates, and whether it lies beyond the horizon (then placed there). */
 export const centre = { x: 0, y: 0, far: false };
 
 const frame = new PairFrame();
+const pp = new PowerPoint();
 
 /**
  * The centre of the Lp circle (a homothet of the unit p-ball) through the
@@ -12,14 +14,17 @@ const frame = new PairFrame();
  * smooth norm it exists and is unique for non-collinear points (Chew and
  * Drysdale 1985, from memory).
  *
- * Newton's method on the two equations ||x-a|| = ||x-b||, ||x-a|| = ||x-c||,
- * in coordinates relative to a scaled by the longest side, started at the
- * Euclidean circumcentre and damped so the residual never grows. When it
- * does not converge (far centres of near-flat triangles, p far from 2),
- * the centre is found by bisection along the bisector of the longest side:
- * there ||q-c|| - ||q-a|| is decreasing in s (the Lp circles through two
- * points are nested on each side of them, as two such circles meet in at
- * most two points), so the bracket is safe.
+ * Newton's method on the two equations ||x-a||^p = ||x-b||^p,
+ * ||x-a||^p = ||x-c||^p (the p-th powers: same root as the norms, and no
+ * root to take; integer p multiplies out, see powP), in coordinates
+ * relative to a scaled by the longest side, started at the Euclidean
+ * circumcentre and damped: a step that makes the residual (relative to
+ * ||x-a||^p) grow is halved until it does not. When it does not converge
+ * (far centres of near-flat triangles, p far from 2), the centre is found
+ * by bisection along the bisector of the longest side: there
+ * ||q-c|| - ||q-a|| is decreasing in s (the Lp circles through two points
+ * are nested on each side of them, as two such circles meet in at most two
+ * points), so the bracket is safe.
  */
 export function lpCentre(p: number, ax: number, ay: number, bx: number, by: number, cx: number, cy: number, horizon: number): void {
   const L = Math.max(Math.hypot(bx - ax, by - ay), Math.hypot(cx - bx, cy - by), Math.hypot(ax - cx, ay - cy));
@@ -30,29 +35,35 @@ export function lpCentre(p: number, ax: number, ay: number, bx: number, by: numb
   // Newton is trusted only near the triangle: far out the residuals flatten to differences of
   // nearly equal large norms, and "converged" would mean nothing. Far centres (near-flat triangles) bisect.
   const NEAR = 1e4;
+  const pi = smallInteger(p);
   let ok = Number.isFinite(X) && Number.isFinite(Y) && Math.abs(X) + Math.abs(Y) < NEAR;
   if (ok) {
     ok = false;
-    let res = Infinity;
+    // The last full step from (X0, Y0) and the fraction of it taken (halved while the residual grows).
+    let res = Infinity, X0 = X, Y0 = Y, dX = 0, dY = 0, frac = 1;
     for (let it = 0; it < 60 && Math.abs(X) + Math.abs(Y) < NEAR; it++) {
-      lpNorm(p, X, Y);
-      const n0 = lp.value, ax0 = lp.gx, ay0 = lp.gy;
-      lpNorm(p, X - Bx, Y - By);
-      const g1 = n0 - lp.value;
-      const j11 = ax0 - lp.gx, j12 = ay0 - lp.gy;
-      lpNorm(p, X - Cx, Y - Cy);
-      const g2 = n0 - lp.value;
-      const j21 = ax0 - lp.gx, j22 = ay0 - lp.gy;
-      const r = Math.abs(g1) + Math.abs(g2);
-      if (r > res) break;
+      pp.set(p, pi, X, Y, X - Bx, Y - By, X - Cx, Y - Cy);
+      const g1 = pp.p0 - pp.p1, g2 = pp.p0 - pp.p2;
+      // Relative to ||x-a||^p, so that the rescaling by the largest coordinate (see PowerPoint) cancels.
+      const r = (Math.abs(g1) + Math.abs(g2)) / pp.p0;
+      if (r > res) {
+        if (frac < 1e-3) break;
+        frac /= 2;
+        X = X0 - frac * dX; Y = Y0 - frac * dY;
+        continue;
+      }
       res = r;
+      const j11 = pp.g0x - pp.g1x, j12 = pp.g0y - pp.g1y, j21 = pp.g0x - pp.g2x, j22 = pp.g0y - pp.g2y;
       const det = j11 * j22 - j12 * j21;
       if (!(Math.abs(det) > 0)) break;
-      const dx = (g1 * j22 - g2 * j12) / det, dy = (j11 * g2 - j21 * g1) / det;
-      X -= dx; Y -= dy;
-      // Converged: the step is at rounding level and so is the residual (a few ulps of the norms, which
-      // are at most NEAR times the longest side, itself 1 here).
-      if (Math.abs(dx) + Math.abs(dy) <= 4 * Number.EPSILON * (Math.abs(X) + Math.abs(Y) + 1) && r <= 64 * Number.EPSILON * (n0 + 1)) { ok = true; break; }
+      // The gradients lack the factor p / M of the residuals' true derivatives: the step puts it back.
+      const k = pp.M / p;
+      X0 = X; Y0 = Y; frac = 1;
+      dX = k * (g1 * j22 - g2 * j12) / det; dY = k * (j11 * g2 - j21 * g1) / det;
+      X -= dX; Y -= dY;
+      // Converged: the step is at rounding level and so is the residual (a few ulps of the powers; relative
+      // to them, p times the norms' relative residual, which is at most a few ulps of the norms).
+      if (Math.abs(dX) + Math.abs(dY) <= 4 * Number.EPSILON * (Math.abs(X) + Math.abs(Y) + 1) && r <= 64 * p * Number.EPSILON) { ok = true; break; }
     }
   }
   if (ok && Math.abs(X) + Math.abs(Y) < NEAR) {

@@ -1,30 +1,10 @@
 /**
- * The Minkowski norm ||v||_p = (|vx|^p + |vy|^p)^(1/p) for 1 < p < ∞, and
- * its gradient, without overflow for any p: both are computed from the
- * ratio r = min/max of the two magnitudes, so no power of a large number is
- * ever formed. Results go to module scratch (no allocation in the hot
- * loops of the bisector and centre solvers).
+ * The Minkowski norm ||v||_p = (|vx|^p + |vy|^p)^(1/p) for 1 < p < ∞,
+ * without overflow for any p: computed from the ratio r = min/max of the
+ * two magnitudes, so no power of a large number is ever formed.
  */
-export const lp = { value: 0, gx: 0, gy: 0 };
 
-/** ||(vx, vy)||_p into lp.value and its gradient into lp.gx, lp.gy. */
-export function lpNorm(p: number, vx: number, vy: number): void {
-  const ax = Math.abs(vx), ay = Math.abs(vy);
-  const big = ax >= ay ? ax : ay;
-  if (big === 0) { lp.value = 0; lp.gx = 0; lp.gy = 0; return; }
-  const r = (ax >= ay ? ay : ax) / big;
-  const rp = r === 0 ? 0 : Math.pow(r, p);
-  const sum = 1 + rp;
-  const root = Math.pow(sum, 1 / p);
-  lp.value = big * root;
-  // d||v||/dv_k = sign(v_k) (|v_k| / ||v||)^(p-1); for the larger component (1/root)^(p-1) = root / sum.
-  const gBig = root / sum, gSmall = r === 0 ? 0 : (rp / r) * gBig;
-  const gx = ax >= ay ? gBig : gSmall, gy = ax >= ay ? gSmall : gBig;
-  lp.gx = vx < 0 ? -gx : gx;
-  lp.gy = vy < 0 ? -gy : gy;
-}
-
-/** ||(vx, vy)||_p alone. */
+/** ||(vx, vy)||_p. */
 export function lpLength(p: number, vx: number, vy: number): number {
   const ax = Math.abs(vx), ay = Math.abs(vy);
   const big = ax >= ay ? ax : ay;
