@@ -101,10 +101,12 @@ export class MeshParts {
 
   /** A crossing of side j at P + t (Q − P) by an edge running P→Q with `left` and `right` cells, entering or leaving. */
   cross(j: number, px: number, py: number, qx: number, qy: number, t: number, left: number, right: number, entering: boolean): number {
-    const x = px + t * (qx - px), y = py + t * (qy - py);
-    const id = this.points.add(x, y);
     const r = this.region.xy, k = j + 1 === this.region.count ? 0 : j + 1;
     const dx = r[2 * k] - r[2 * j], dy = r[2 * k + 1] - r[2 * j + 1];
+    // On an axis-parallel side (every side of a box) the crossing takes the side's coordinate exactly: the
+    // interpolation can land an ulp off it, and a cell would then miss points of the region's own boundary.
+    const x = dx === 0 ? r[2 * j] : px + t * (qx - px), y = dy === 0 ? r[2 * j + 1] : py + t * (qy - py);
+    const id = this.points.add(x, y);
     // Inward direction of the edge at the crossing.
     const wx = entering ? qx - px : px - qx, wy = entering ? qy - py : py - qy;
     this.crossings[j].push({
