@@ -1,5 +1,6 @@
 import type { PairFrame } from './bisector.js';
 import { length } from '../../core/length.js';
+import { siteLineCrossings } from './crossings.js';
 
 /** A growable list of points with their bisector parameter s: the polyline of one edge. */
 export class Polyline {
@@ -30,6 +31,8 @@ function push(s: number, x: number, y: number, t: number, tx: number, ty: number
   const k = W * top++;
   stack[k] = s; stack[k + 1] = x; stack[k + 2] = y; stack[k + 3] = t; stack[k + 4] = tx; stack[k + 5] = ty;
 }
+/** The site-line crossings the subdivision always splits at (s, t pairs, in increasing s; see siteLineCrossings). */
+const splitsAt = new Float64Array(8);
 
 /**
  * Largest distance of a convex arc from its chord P0 P1 (length L), given
@@ -86,29 +89,6 @@ function halfBound(x0: number, y0: number, cx: number, cy: number, L: number, q0
   return mid + arcBound(dx, dy, t0x, t0y, t1x, t1y);
 }
 
-/** Whether u, v, w (in this order) pass the value c. */
-function cut(u: number, v: number, w: number, c: number): boolean { return (u - c) * (v - c) <= 0 || (v - c) * (w - c) <= 0; }
-
-/** The pair's sites, for straddles(). */
-let ax = 0, ay = 0, bx = 0, by = 0;
-function sitesOf(f: PairFrame): void {
-  ax = f.mx - f.h * f.ex; ay = f.my - f.h * f.ey; bx = f.mx + f.h * f.ex; by = f.my + f.h * f.ey;
-}
-
-/**
- * Whether the path P, Q, R crosses an axis-parallel line through a site.
- * There a coordinate of q - a or q - b vanishes, and for p < 2 the norm's
- * curvature is unbounded: the bisector's curvature can change sign twice
- * in a short stretch, which the tangents at the three points do not show
- * (seen for p = 1.1 and 1.5 in a dense check of the sampled edges against
- * the curve, both ways, on 2,000 uniform sites). For p > 2 the curvature
- * there is zero instead, and the same check (p from 2.2 to 30, two seeds)
- * found the tangents' turn enough.
- */
-function straddles(px: number, py: number, qx: number, qy: number, rx: number, ry: number): boolean {
-  return cut(px, qx, rx, ax) || cut(py, qy, ry, ay) || cut(px, qx, rx, bx) || cut(py, qy, ry, by);
-}
-
 /**
  * Appends to `out` the points of the bisector strictly between s0 and s1
  * (ends given with their t; the start not appended), then the end (x1, y1).
@@ -119,19 +99,43 @@ function straddles(px: number, py: number, qx: number, qy: number, rx: number, r
  * and at two points symmetric about it), which the end tangents of a chord
  * do not always reveal; so every chord is judged with its middle point and
  * the tangent there. Where the tangent turns one way at all three points,
- * and (for p < 2) the chord crosses no axis-parallel line through a site
- * (see straddles), each half is taken for convex: the curve lies in the two
- * halves' tangent triangles, whose corners are within tol of the chord
- * (halfBound). Otherwise the chord's own arcBound must be within tol, and
- * the middle point's distance from the chord plus the arcBound of the two
- * halves too (the curve is within the halves' bounds of the path through
- * the middle point, which is within that distance of the chord). The
- * first rule accepts a circular arc of height up to tol, the second only
- * up to tol / 2 (its chord's tangent triangle is twice as high): a quarter
- * fewer bends at p = 3 (2.85 to 2.14 million on 1e5 uniform sites). The
- * bisector is centrally
- * symmetric about the pair's midpoint (the norm is symmetric), so its
- * curvature changes sign there: a chord across s = 0 is always split at 0.
+ * each half is taken for convex: the curve lies in the two halves' tangent
+ * triangles, whose corners are within tol of the chord (halfBound).
+ * Otherwise the chord's own arcBound must be within tol, and the middle
+ * point's distance from the chord plus the arcBound of the two halves too
+ * (the curve is within the halves' bounds of the path through the middle
+ * point, which is within that distance of the chord). The first rule
+ * accepts a circular arc of height up to tol, the second only up to tol / 2
+ * (its chord's tangent triangle is twice as high): a quarter fewer bends at
+ * p = 3 (2.85 to 2.14 million on 1e5 uniform sites).
+ *
+ * Both rules rest on the curvature changing sign only where the sampled
+ * tangents can see it: at isolated points of a curve that is smooth at the
+ * chord's scale. The bisector is centrally symmetric about the pair's
+ * midpoint (the norm is symmetric), so its curvature changes sign there: a
+ * chord across s = 0 is always split at 0. For p < 2 the norm is not smooth
+ * on the axis-parallel lines through its centre: the curve of
+ * ||q - a|| - ||q - b|| = 0 has curvature unbounded where it crosses a line
+ * x = ax (likewise y = ay, x = bx, y = by). Near such a crossing,
+ * ||q - a||_p = |y - ay| + |x - ax|^p / (p |y - ay|^(p-1)) + ..., so the
+ * bisector is a smooth curve plus a term d |x - ax|^p: its curvature is the
+ * smooth curve's plus d p (p - 1) |x - ax|^(p-2), a spike of one sign on
+ * both sides of the line, which against an opposite background curvature
+ * makes two inflections a short way either side, an S bend and its mirror
+ * inside one chord that the tangents at its ends and middle can miss
+ * entirely (a dense check of the sampled edges against the curve found
+ * 1.31 tol at p = 1.1 and 1.08 at p = 1.5, 2,000 uniform sites, with such
+ * chords judged by the second rule alone). So for p < 2 every edge is also split exactly at its
+ * crossings with those four lines (siteLineCrossings: at most one per line,
+ * solved on the line itself). Within a chord the coordinates of q - a and
+ * q - b then keep their signs, the norms are analytic, and on either side of
+ * a crossing the spike term decreases monotonically away from it: at most
+ * one sign change where it meets the background, next to the chord's end,
+ * an inflection the rules judge like the curve's others (the tangent is
+ * continuous there, p - 1 > 0). That is the rules' premise, not a proof;
+ * tests/property/minkowski-tolerance.test.ts checks the result densely, both
+ * ways. For p > 2 the spike is a zero of the curvature instead, and the
+ * curve needs no such split.
  * Chords shorter in s than rounding can resolve are not split further.
  */
 export function sampleEdge(f: PairFrame, s0: number, x0: number, y0: number, t0: number,
@@ -141,12 +145,15 @@ export function sampleEdge(f: PairFrame, s0: number, x0: number, y0: number, t0:
   f.at(s1, t1);
   push(s1, x1, y1, t1, f.tx, f.ty);
   const floor = 64 * Number.EPSILON * f.h;
-  if (s0 < 0 && s1 > 0 && -s0 > floor && s1 > floor) {
-    f.at(0, 0);
-    push(0, f.x, f.y, f.t, f.tx, f.ty);
+  const n = f.p < 2 ? siteLineCrossings(f, s0, x0, y0, s1, x1, y1, splitsAt) : 0;
+  // The crossings and 0, from the largest down (the stack hands out the smallest first).
+  let zero = s0 < 0 && s1 > 0 && -s0 > floor && s1 > floor;
+  for (let i = n - 1; i >= -1; i--) {
+    const s = i >= 0 ? splitsAt[2 * i] : -Infinity;
+    if (zero && s < 0) { zero = false; f.at(0, 0); push(0, f.x, f.y, f.t, f.tx, f.ty); }
+    if (i >= 0 && s - s0 > floor && s1 - s > floor) { f.at(s, splitsAt[2 * i + 1]); push(s, f.x, f.y, f.t, f.tx, f.ty); }
   }
   f.at(s0, t0);
-  sitesOf(f);
   let ls = s0, lx = x0, ly = y0, lt = t0, ltx = f.tx, lty = f.ty;
   // A cap on the splits of one edge (far above the ~2e4 chords of a tolerance of 1e-8 of the region):
   // where rounding swamps the curve (large p far from the origin makes the
@@ -175,7 +182,7 @@ export function sampleEdge(f: PairFrame, s0: number, x0: number, y0: number, t0:
           // taken for convex (halfBound); otherwise the sum of the middle point's distance and the halves'
           // arcBound, and the chord's own arcBound.
           const turn0 = ltx * f.ty - lty * f.tx, turn1 = f.tx * rty - f.ty * rtx, turn = ltx * rty - lty * rtx;
-          if (turn0 * turn1 > 0 && turn0 * turn > 0 && along >= 0 && along <= len && !(f.p < 2 && straddles(lx, ly, f.x, f.y, rx, ry))) {
+          if (turn0 * turn1 > 0 && turn0 * turn > 0 && along >= 0 && along <= len) {
             split = halfBound(lx, ly, cx, cy, len, lx, ly, ltx, lty, f.x, f.y, f.tx, f.ty, mid) > tol ||
               halfBound(lx, ly, cx, cy, len, f.x, f.y, f.tx, f.ty, rx, ry, rtx, rty, mid) > tol;
           } else {
