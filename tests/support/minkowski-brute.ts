@@ -54,3 +54,24 @@ export function distanceToBisector(p: number, ax: number, ay: number, bx: number
   const [gax, gay] = grad(qx - ax, qy - ay), [gbx, gby] = grad(qx - bx, qy - by);
   return Math.abs(f) / Math.hypot(gax - gbx, gay - gby);
 }
+
+/**
+ * The point of the p-bisector of a and b at signed distance s from the line
+ * ab (s along the left normal of a→b), from the definition
+ * ||q - a||_p = ||q - b||_p alone: bisection on the line through
+ * m + s û parallel to ab (m the midpoint, û the left normal), along which
+ * ||q - a|| - ||q - b|| grows from -|ab| to |ab| for a strictly convex norm,
+ * so the bisector meets it once. Returns [x, y].
+ */
+export function bisectorPointAt(p: number, ax: number, ay: number, bx: number, by: number, s: number): [number, number] {
+  const L = Math.hypot(bx - ax, by - ay), ex = (bx - ax) / L, ey = (by - ay) / L, mx = (ax + bx) / 2, my = (ay + by) / 2;
+  const ox = mx - s * ey, oy = my + s * ex;
+  // The root lies within |t| < |s| + |ab| / 2 (argued at PairFrame.at); the bracket is four times that.
+  let lo = -2 * (Math.abs(s) + L), hi = -lo;
+  for (let i = 0; i < 200 && hi - lo > 1e-15 * (Math.abs(s) + L); i++) {
+    const t = (lo + hi) / 2, x = ox + t * ex, y = oy + t * ey;
+    if (lpDistance(p, x - ax, y - ay) - lpDistance(p, x - bx, y - by) < 0) lo = t; else hi = t;
+  }
+  const t = (lo + hi) / 2;
+  return [ox + t * ex, oy + t * ey];
+}
