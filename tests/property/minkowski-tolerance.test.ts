@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { voronoi, type MinkowskiVoronoiDiagram } from '../../src/index.js';
 import { prng } from '../support/live-cases.js';
+import { boundingBox, type Box } from '../../src/core/bounds.js';
 import { bisectorPointAt, distanceToBisector } from '../support/minkowski-brute.js';
 
 /**
@@ -37,7 +38,7 @@ function sets(): { name: string; points: Float64Array }[] {
 }
 
 /** Worst distance in each direction, in units of the diagram's tolerance. */
-function worst(d: MinkowskiVoronoiDiagram, p: number, box: { minX: number; minY: number; maxX: number; maxY: number }): [number, number] {
+function worst(d: MinkowskiVoronoiDiagram, p: number, box: Box): [number, number] {
   const m = d.mesh, xy = d.triangulation.siteXY, V = m.vertexXY, tol = d.tolerance;
   const n = d.triangulation.siteCount;
   const pairs = new Map<number, number[]>();
@@ -89,12 +90,7 @@ function segmentDistance(px: number, py: number, x0: number, y0: number, x1: num
 
 describe('Minkowski edges within the tolerance of the true bisector, both ways', () => {
   for (const { name, points } of sets()) {
-    let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-    for (let i = 0; i < points.length; i += 2) {
-      minX = Math.min(minX, points[i]); maxX = Math.max(maxX, points[i]);
-      minY = Math.min(minY, points[i + 1]); maxY = Math.max(maxY, points[i + 1]);
-    }
-    const clip = { minX, minY, maxX, maxY };
+    const clip = boundingBox(points);
     for (const p of EXPONENTS) {
       it(`${name}, p = ${p}`, () => {
         const d = voronoi(points, { metric: p, clip }) as MinkowskiVoronoiDiagram;

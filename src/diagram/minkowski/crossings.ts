@@ -1,4 +1,5 @@
 import type { PairFrame } from './bisector.js';
+import { powerSlope } from './powers.js';
 
 /**
  * The s values, strictly between s0 and s1 and in increasing order, where
@@ -66,7 +67,7 @@ function root(p: number, da: number, db: number, pa: number, pb: number, w0: num
     if (val === 0) return w;
     if (val < 0) lo = w; else hi = w;
     // d/dw of the value: (p / h) (sign(u) |u|^(p-1) - sign(v) |v|^(p-1)).
-    const d = sign * (p * inv) * ((au > 0 ? (u < 0 ? -pu : pu) / au : 0) - (av > 0 ? (v < 0 ? -pv : pv) / av : 0));
+    const d = sign * (p * inv) * (powerSlope(pu, au, u) - powerSlope(pv, av, v));
     let next = w - val / d;
     if (!(next > lo && next < hi)) next = lo + (hi - lo) / 2;
     const moved = Math.abs(next - w);
