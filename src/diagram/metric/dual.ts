@@ -12,6 +12,7 @@ import { hilbertSort } from '../../core/hilbert.js';
 import type { ExactMetric } from './bisector.js';
 import { PairBisector } from './pair.js';
 import { spacingLimit } from '../spacing.js';
+import { FOUND, NONE, SquareCircle } from './square.js';
 
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
@@ -115,7 +116,36 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
 
   // The metric Delaunay triangulation (step 2).
   const store = new TriangleStore(xy, 2 * N + 8);
+  const square = new SquareCircle(xy, !rotated);
   store.mustFlip = (a, b, p, d) => {
+    // The clear cases in closed form (square.ts); the rest along the bisector.
+    const found = square.through(a, b, p);
+    if (found === FOUND) {
+      // d inside the circle through a, b and p, or outside, by 4 margins (each side's rounding is within one).
+      const g = square.beyond(d), slack = 4 * 2 ** -45 * Math.max(square.m, square.scale(d));
+      if (g > slack) return false;
+      if (g < -slack) return convexAt(a, b, p, d);
+    } else if (found === NONE) {
+      // No circle through the three: p inside the pair's bounding box lies inside every circle through a
+      // and b, and the edge goes; else (a or b inside the others' box) p lies outside every one, and the
+      // edge goes only when d lies inside every one, i.e. inside the pair's box.
+      if (square.inner === p) return convexAt(a, b, p, d);
+      const inside = square.insideBox(a, b, d);
+      if (inside < 0) return false;
+      if (inside > 0) return convexAt(a, b, p, d);
+    }
+    return mustFlipByRoots(a, b, p, d);
+  };
+  // A corner inside the circle across makes the quadrilateral convex (the chord meets the circle in ab
+  // alone, as the pair is not on a flat side); checked all the same, as a flip across a reflex corner
+  // would fold the triangulation.
+  const convexAt = (a: number, b: number, p: number, d: number): boolean => {
+    if (orient(xy[2 * d], xy[2 * d + 1], xy[2 * p], xy[2 * p + 1], xy[2 * a], xy[2 * a + 1]) <= 0 ||
+      orient(xy[2 * p], xy[2 * p + 1], xy[2 * d], xy[2 * d + 1], xy[2 * b], xy[2 * b + 1]) <= 0) throw new Undecided();
+    return true;
+  };
+  // The general test, along the bisector of a and b (pair.ts), where the closed form is unsure.
+  const mustFlipByRoots = (a: number, b: number, p: number, d: number): boolean => {
     if (!pair.set(a, b)) throw new Undecided();
     // The edge stays when d is outside the circle through a, b and p. With rp where that circle is centred
     // and rd where d's is, that is rd < rp (the Voronoi edge dual to a→b runs forwards): d's side of the
@@ -135,12 +165,7 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
       if (Number.isNaN(rd)) throw new Undecided();
       if (rp > 0 && rd < Infinity) return false;
     }
-    // A corner inside the circle across makes the quadrilateral convex (the chord meets the circle in ab
-    // alone, as the pair is not on a flat side); checked all the same, as a flip across a reflex corner
-    // would fold the triangulation.
-    if (orient(xy[2 * d], xy[2 * d + 1], xy[2 * p], xy[2 * p + 1], xy[2 * a], xy[2 * a + 1]) <= 0 ||
-      orient(xy[2 * p], xy[2 * p + 1], xy[2 * d], xy[2 * d + 1], xy[2 * b], xy[2 * b + 1]) <= 0) throw new Undecided();
-    return true;
+    return convexAt(a, b, p, d);
   };
   store.init(n, n + 1, n + 2);
   for (let g = 3; g < GUARDS; g++) store.insert(n + g);
@@ -159,11 +184,16 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   parts.room(6.3 * n + 64, 14.5 * n + 256);
   const pointOf = new Int32Array(count).fill(-1);
   const cxy = new Float64Array(2 * count);
-  // Per triangle: 0 centre not met yet, 1 finite, 2 at infinity.
+  // Per triangle: 0 centre not met yet, 1 finite, 2 at infinity (both from the bisector roots), 3 closed form
+  // unsure (roots not met yet), 4 finite from the closed form (square.ts).
   const state = new Uint8Array(count);
+  const place = (t: number, x: number, y: number): void => {
+    cxy[2 * t] = x; cxy[2 * t + 1] = y;
+    if (sides.least(x, y) > 0) pointOf[t] = parts.points.add(x, y);
+  };
   const centre = (t: number, s: number): void => {
     const finite = Number.isFinite(s);
-    if (state[t] !== 0) {
+    if (state[t] !== 3) {
       // Three bisectors of one triangle agree on whether its circle exists.
       if ((state[t] === 1) !== finite) throw new Undecided();
       return;
@@ -171,8 +201,29 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     state[t] = finite ? 1 : 2;
     if (!finite) return;
     pair.point(s);
-    cxy[2 * t] = pair.x; cxy[2 * t + 1] = pair.y;
-    if (sides.least(pair.x, pair.y) > 0) pointOf[t] = parts.points.add(pair.x, pair.y);
+    place(t, pair.x, pair.y);
+  };
+  // Where along the pair's bisector (as s) triangle t's centre lies, c its corner off the pair, on the `left`
+  // (1) or right (-1): the closed form's centre where it is clear-cut (its K coordinate in the frame: the
+  // bisector is a graph over K), else the bisector's root.
+  const along = (t: number, c: number, left: number): number => {
+    if (state[t] === 0) {
+      if (square.through(vert[3 * t], vert[3 * t + 1], vert[3 * t + 2]) === FOUND) {
+        state[t] = 4;
+        // Back from W: (x, y) = ((u + v) / 2, (u - v) / 2) for L1, (u, v) for L-infinity.
+        if (rotated) place(t, square.cu, square.cv);
+        else place(t, (square.cu + square.cv) / 2, (square.cu - square.cv) / 2);
+      } else state[t] = 3;
+    }
+    if (state[t] === 4) {
+      const x = cxy[2 * t], y = cxy[2 * t + 1];
+      const K = rotated ? (pair.kIsQ ? x - y : x + y) : pair.kIsQ ? y : x;
+      return pair.tau * K;
+    }
+    const s = pair.root(c, left);
+    if (Number.isNaN(s)) throw new Undecided();
+    centre(t, s);
+    return s;
   };
   const line = new Float64Array(8);
   // Per triangle half-edge x (a = vert[x]): the mesh half-edge arriving at x's triangle's centre along the
@@ -190,16 +241,11 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     if (uLive && y < x) continue;
     const a = vert[x], b = vert[nextOf(x)], c = vert[prevOf(x)];
     if (!pair.set(a, b)) throw new Undecided();
-    const st = pair.root(c, 1);
-    if (Number.isNaN(st)) throw new Undecided();
-    let su = -Infinity;
-    if (uLive) {
-      const d = vert[prevOf(y)];
-      su = pair.root(d, -1);
-      if (Number.isNaN(su) || !(st - su > Math.max(pair.allowance(c, 4), pair.allowance(d, 4)))) throw new Undecided();
-      centre(u, su);
-    }
-    centre(t, st);
+    // u's centre first: the mesh numbers points as they are placed.
+    const d = uLive ? vert[prevOf(y)] : -1;
+    const su = uLive ? along(u, d, -1) : -Infinity;
+    const st = along(t, c, 1);
+    if (uLive && !(st - su > Math.max(pair.allowance(c, 4), pair.allowance(d, 4)))) throw new Undecided();
     // Guard cells stay outside the region (see withGuards): their edges are not drawn.
     if (siteOf[a] < 0 || siteOf[b] < 0) continue;
     const gap = Math.abs(F[2 * a] - F[2 * b]) + Math.abs(F[2 * a + 1] - F[2 * b + 1]);

@@ -1,0 +1,120 @@
+/*
+ * The L1 or L-infinity circle through three sites in closed form, for the
+ * dual route (dual.ts): its edge tests during insertion and the triangles'
+ * centres. The general construction (pair.ts) finds a centre as the root of
+ * a piecewise-linear function along one bisector; this one reads it off the
+ * three sites' bounding box, several times cheaper, and settles only the
+ * clear cases: whenever it is unsure it says so, and the caller takes the
+ * general construction.
+ *
+ * In the frame W = (u, v), with (u, v) = (x + y, x - y) for L1 and (x, y)
+ * for L-infinity, the metric is the L-infinity distance (|dx| + |dy| =
+ * max(|du|, |dv|)), so circles are axis-parallel squares. Let the three
+ * sites span U along u and V along v, and say U > V. Every side of a square
+ * through them is at least U long and a side of 2r > U touches at most one
+ * of the sites of least and largest u; the other two would then lie on the
+ * sides across u, whose gap in v (at most V) would have to be 2r: so r = U/2,
+ * the extreme sites lie on the left and right sides and the middle one, M,
+ * on the top or bottom side. That is possible exactly when M is the highest
+ * or the lowest of the three in v (the square then reaches U down or up
+ * from M, past the others, as V < U); when M lies between the others in v
+ * there is no circle through the three (derived here). V > U is the same
+ * with u and v exchanged. Ties (U close to V, M close to the others in u or
+ * v) are left to the general construction.
+ *
+ * Rounding: W is exact for L-infinity and within 2^-53 of |x| + |y| for L1;
+ * the centre and radius take a few more roundings, so they are within about
+ * 16 u m of exact (u = 2^-53, m the largest W magnitude involved), far
+ * inside the margin 2^-45 m (256 u m) every decision here must clear.
+ */
+/** Results of SquareCircle.through. */
+export const FOUND = 1, NONE = 0, UNSURE = -1;
+
+export class SquareCircle {
+  /** The last circle found, in W: centre and radius. */
+  cu = 0; cv = 0; r = 0;
+  /** Largest W magnitude of its sites: the scale of its rounding. */
+  m = 0;
+
+  constructor(
+    /** The sites, interleaved (x, y) by index. */
+    private readonly xy: Float64Array,
+    /** True for L1: W = (x + y, x - y); else W = (x, y). */
+    private readonly l1: boolean,
+  ) {}
+
+  private u(i: number): number { return this.l1 ? this.xy[2 * i] + this.xy[2 * i + 1] : this.xy[2 * i]; }
+  private v(i: number): number { return this.l1 ? this.xy[2 * i] - this.xy[2 * i + 1] : this.xy[2 * i + 1]; }
+
+  /**
+   * The circle through sites a, b and c into (cu, cv, r): FOUND; NONE when
+   * there is none, one of the three lying clearly inside the bounding box
+   * of the other two (that site, in `inner`); UNSURE when neither is clear-cut.
+   */
+  through(a: number, b: number, c: number): number {
+    const ua = this.u(a), va = this.v(a), ub = this.u(b), vb = this.v(b), uc = this.u(c), vc = this.v(c);
+    const m = (this.m = Math.max(Math.abs(ua), Math.abs(va), Math.abs(ub), Math.abs(vb), Math.abs(uc), Math.abs(vc)));
+    const eps = 2 ** -45 * m;
+    const U = Math.max(ua, ub, uc) - Math.min(ua, ub, uc), V = Math.max(va, vb, vc) - Math.min(va, vb, vc);
+    let found: number;
+    if (U > V + eps) found = this.spanned(ua, va, ub, vb, uc, vc, eps);
+    else if (V > U + eps) {
+      found = this.spanned(va, ua, vb, ub, vc, uc, eps);
+      const t = this.cu; this.cu = this.cv; this.cv = t;
+    } else return UNSURE;
+    if (found === NONE) this.inner = this.middle === 0 ? a : this.middle === 1 ? b : c;
+    return found;
+  }
+
+  /** Set by through() when it returns NONE: the site inside the others' bounding box. */
+  inner = -1;
+  /** Which of spanned()'s three sites is the middle one in p (0, 1 or 2). */
+  private middle = 0;
+
+  /**
+   * The square whose left and right sides (along p) hold the two sites of
+   * extreme p, and whose top or bottom side (along q) the middle one: centre
+   * (cu, cv) = (p, q) and r. NONE when the middle site lies clearly between
+   * the others in q too; UNSURE when it is not clearly strictly between them
+   * in p, or is near one of them in q.
+   */
+  private spanned(p1: number, q1: number, p2: number, q2: number, p3: number, q3: number, eps: number): number {
+    // The middle site in p (pm, qm) and the other two's q.
+    let pm: number, qm: number, qa: number, qb: number, lo: number, hi: number;
+    if ((p1 - p2) * (p1 - p3) < 0) { this.middle = 0; pm = p1; qm = q1; qa = q2; qb = q3; lo = Math.min(p2, p3); hi = Math.max(p2, p3); }
+    else if ((p2 - p1) * (p2 - p3) < 0) { this.middle = 1; pm = p2; qm = q2; qa = q1; qb = q3; lo = Math.min(p1, p3); hi = Math.max(p1, p3); }
+    else { this.middle = 2; pm = p3; qm = q3; qa = q1; qb = q2; lo = Math.min(p1, p2); hi = Math.max(p1, p2); }
+    if (!(pm - lo > eps && hi - pm > eps)) return UNSURE;
+    const r = (hi - lo) / 2, qlo = Math.min(qa, qb), qhi = Math.max(qa, qb);
+    let cq: number;
+    if (qm - qhi > eps) cq = qm - r;
+    else if (qlo - qm > eps) cq = qm + r;
+    else if (qm - qlo > eps && qhi - qm > eps) return NONE;
+    else return UNSURE;
+    this.cu = (lo + hi) / 2; this.cv = cq; this.r = r;
+    return FOUND;
+  }
+
+  /**
+   * Whether site d lies inside every circle through sites a and b: their
+   * common part is the pair's bounding box (a box holding two points holds
+   * theirs, and the pair's own circles come down to it). 1 clearly inside,
+   * -1 clearly outside, 0 unsure.
+   */
+  insideBox(a: number, b: number, d: number): number {
+    const ua = this.u(a), va = this.v(a), ub = this.u(b), vb = this.v(b), ud = this.u(d), vd = this.v(d);
+    const eps = 2 ** -45 * Math.max(Math.abs(ua), Math.abs(va), Math.abs(ub), Math.abs(vb), Math.abs(ud), Math.abs(vd));
+    const uIn = Math.min(ud - Math.min(ua, ub), Math.max(ua, ub) - ud);
+    const vIn = Math.min(vd - Math.min(va, vb), Math.max(va, vb) - vd);
+    const least = Math.min(uIn, vIn);
+    return least > eps ? 1 : least < -eps ? -1 : 0;
+  }
+
+  /** Site d's distance beyond the last circle (negative inside), in the metric's units. */
+  beyond(d: number): number {
+    return Math.max(Math.abs(this.u(d) - this.cu), Math.abs(this.v(d) - this.cv)) - this.r;
+  }
+
+  /** Largest W magnitude of site d. */
+  scale(d: number): number { return Math.max(Math.abs(this.u(d)), Math.abs(this.v(d))); }
+}
