@@ -11,6 +11,9 @@ export const GHOST = -1;
 /** Marks the three slots of a triangle freed by a vertex removal (weighted build only). */
 export const DEAD = -2;
 
+/** A replacement in-circle test (see TriangleStore.flipTest). */
+export interface FlipTest { mustFlip(a: number, b: number, p: number, d: number): boolean }
+
 // Half-edges 3t, 3t+1, 3t+2 belong to triangle t, in counter-clockwise order.
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
@@ -123,7 +126,7 @@ export class TriangleStore {
   locate(px: number, py: number): number {
     const t = this.walk(px, py, false);
     if (t >= 0) return t;
-    // A triangulation that is not Delaunay (a metric one, see mustFlip) can make the walk cycle; a walk
+    // A triangulation that is not Delaunay (a metric one, see flipTest) can make the walk cycle; a walk
     // that tries the edges in random order cannot cycle for ever in any triangulation (Devillers, Pion and
     // Teillaud 2002, from memory), so it goes next, and the scan stays the last resort.
     const u = this.walk(px, py, true);
@@ -260,8 +263,8 @@ export class TriangleStore {
       else this.splitTriangle(t, s);
     }
     if (w === null) {
-      if (this.mustFlip === null) this.legalize();
-      else this.legalizeBy(this.mustFlip);
+      if (this.flipTest === null) this.legalize();
+      else this.legalizeBy(this.flipTest);
     } else {
       this.legalizeWeighted();
       if (this.newGhost >= 0 && this.vert[this.newGhost] === s && this.vert[this.newGhost + 2] === GHOST) this.pruneFlatHull(s, this.newGhost);
@@ -274,8 +277,10 @@ export class TriangleStore {
    * When set, replaces the in-circle test of the unweighted build: whether
    * the edge a→b, with the new site p on its left and d across, must flip.
    * Metric Delaunay triangulations are built this way (diagram/metric/dual.ts).
+   * An object of one class, not a closure: the call stays monomorphic from
+   * one build to the next, and is inlined.
    */
-  mustFlip: ((a: number, b: number, p: number, d: number) => boolean) | null = null;
+  flipTest: FlipTest | null = null;
 
   /** Set by extendHull: the half-edge s→(next hull vertex) of the new site's ghost. */
   private newGhost = -1;
@@ -462,7 +467,7 @@ export class TriangleStore {
    * legalize() with another edge test. Kept apart so that the Euclidean loop,
    * the hot one, keeps its predicate inline.
    */
-  private legalizeBy(mustFlip: (a: number, b: number, p: number, d: number) => boolean): void {
+  private legalizeBy(test: FlipTest): void {
     const v = this.vert, tw = this.twin;
     let depth = this.depth;
     while (depth > 0) {
@@ -470,7 +475,7 @@ export class TriangleStore {
       const e1 = nextOf(e), f = tw[e], f2 = prevOf(f);
       const a = v[e], b = v[e1], d = v[f2];
       if (a < 0 || b < 0 || d < 0) continue;
-      if (!mustFlip(a, b, v[prevOf(e)], d)) continue;
+      if (!test.mustFlip(a, b, v[prevOf(e)], d)) continue;
       flip(v, tw, e);
       depth = this.push(e1, depth);
       depth = this.push(f2, depth);

@@ -1,4 +1,3 @@
-import { orient } from '../../core/predicates.js';
 import type { HalfEdgeMesh } from '../../mesh/mesh.js';
 import type { Triangulation } from '../../triangulate/triangulation.js';
 import { ConvexRegion } from '../clip.js';
@@ -13,13 +12,14 @@ import { brioOrder } from '../../triangulate/order.js';
 import type { ExactMetric } from './bisector.js';
 import { PairBisector } from './pair.js';
 import { spacingLimit } from '../spacing.js';
-import { FOUND, NONE, SquareCircle } from './square.js';
+import { SquareCircle } from './square.js';
+import { MetricFlipTest } from './flip-test.js';
+import { TriangleCentres } from './centres.js';
+import { Undecided } from './undecided.js';
 
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
 
-/** Thrown inside the route when a decision falls within the margin; caught at the top. */
-class Undecided extends Error {}
 
 /**
  * The L1 or L-infinity diagram as the dual of the metric's Delaunay
@@ -118,124 +118,59 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   // The metric Delaunay triangulation (step 2).
   const store = new TriangleStore(xy, 2 * N + 8);
   const square = new SquareCircle(xy, !rotated);
-  store.mustFlip = (a, b, p, d) => {
-    // The clear cases in closed form (square.ts); the rest along the bisector.
-    const found = square.through(a, b, p);
-    if (found === FOUND) {
-      // d inside the circle through a, b and p, or outside, by 4 margins (each side's rounding is within one).
-      const g = square.beyond(d), slack = 4 * 2 ** -45 * Math.max(square.m, square.scale(d));
-      if (g > slack) return false;
-      if (g < -slack) return convexAt(a, b, p, d);
-    } else if (found === NONE) {
-      // No circle through the three: p inside the pair's bounding box lies inside every circle through a
-      // and b, and the edge goes; else (a or b inside the others' box) p lies outside every one, and the
-      // edge goes only when d lies inside every one, i.e. inside the pair's box.
-      if (square.inner === p) return convexAt(a, b, p, d);
-      const inside = square.insideBox(a, b, d);
-      if (inside < 0) return false;
-      if (inside > 0) return convexAt(a, b, p, d);
-    }
-    return mustFlipByRoots(a, b, p, d);
-  };
-  // A corner inside the circle across makes the quadrilateral convex (the chord meets the circle in ab
-  // alone, as the pair is not on a flat side); checked all the same, as a flip across a reflex corner
-  // would fold the triangulation.
-  const convexAt = (a: number, b: number, p: number, d: number): boolean => {
-    if (orient(xy[2 * d], xy[2 * d + 1], xy[2 * p], xy[2 * p + 1], xy[2 * a], xy[2 * a + 1]) <= 0 ||
-      orient(xy[2 * p], xy[2 * p + 1], xy[2 * d], xy[2 * d + 1], xy[2 * b], xy[2 * b + 1]) <= 0) throw new Undecided();
-    return true;
-  };
-  // The general test, along the bisector of a and b (pair.ts), where the closed form is unsure.
-  const mustFlipByRoots = (a: number, b: number, p: number, d: number): boolean => {
-    if (!pair.set(a, b)) throw new Undecided();
-    // The edge stays when d is outside the circle through a, b and p. With rp where that circle is centred
-    // and rd where d's is, that is rd < rp (the Voronoi edge dual to a→b runs forwards): d's side of the
-    // circles grows with s, so the sign of d's distance beyond the circle at rp says the same, for one root.
-    const rp = pair.root(p, 1);
-    if (Number.isNaN(rp)) throw new Undecided();
-    if (Number.isFinite(rp)) {
-      const g = pair.beyond(rp, d);
-      // G (within ~180 u m) at a root placed within ~200 u m, G's slope at most 4: within ~980 u m, under 4 allowances.
-      const slack = Math.max(pair.allowance(p, 4), pair.allowance(d, 4));
-      if (g > slack) return false;
-      if (!(g < -slack)) throw new Undecided();
-    } else {
-      // p outside every circle through a and b (+Infinity): the edge stays unless d is inside every one.
-      // p inside every one (-Infinity): the edge goes.
-      const rd = rp > 0 ? pair.root(d, -1) : -Infinity;
-      if (Number.isNaN(rd)) throw new Undecided();
-      if (rp > 0 && rd < Infinity) return false;
-    }
-    return convexAt(a, b, p, d);
-  };
+  store.flipTest = new MetricFlipTest(xy, square, pair);
   store.init(n, n + 1, n + 2);
   for (let g = 3; g < GUARDS; g++) store.insert(n + g);
   // Insertion in BRIO rounds (order.ts), each along the curve: short walks, and fewer flips than the curve
   // order alone, whose newest site always faces the guards' long triangles.
   const sequence = brioOrder(n);
   for (let i = 0; i < n; i++) if (store.insert(sequence[i]) >= 0) throw new Undecided();
-  const count = store.count, vert = store.vert, twin = store.twin;
+  const count = store.count;
   const live = new Uint8Array(count);
   for (let t = 0; t < count; t++) live[t] = store.isGhost(t) ? 0 : 1;
 
-  // One pass over the edges: for the edge a→b, with c the third corner of its triangle t and d across
-  // (triangle u), where along the bisector (as s, pair.ts) the circles through a, b, c and a, b, d are
-  // centred; the certificate (step 3: the edge clearly legal); the centres (each once, from the first of
-  // its triangle's edges met here); and the edge drawn between them (step 4).
   const sides = new SideTest(region, eps);
   // About 6 points (centres and bends) and 14 half-edges a site on well-spread input: room for them from the start.
   parts.room(6.3 * n + 64, 14.5 * n + 256);
-  const pointOf = new Int32Array(count).fill(-1);
-  const cxy = new Float64Array(2 * count);
-  // Per triangle: 0 centre not met yet, 1 finite, 2 at infinity (both from the bisector roots), 3 closed form
-  // unsure (roots not met yet), 4 finite from the closed form (square.ts).
-  const state = new Uint8Array(count);
-  const place = (t: number, x: number, y: number): void => {
-    cxy[2 * t] = x; cxy[2 * t + 1] = y;
-    if (sides.least(x, y) > 0) pointOf[t] = parts.points.add(x, y);
-  };
-  const centre = (t: number, s: number): void => {
-    const finite = Number.isFinite(s);
-    if (state[t] !== 3) {
-      // Three bisectors of one triangle agree on whether its circle exists.
-      if ((state[t] === 1) !== finite) throw new Undecided();
-      return;
-    }
-    state[t] = finite ? 1 : 2;
-    if (!finite) return;
-    pair.point(s);
-    place(t, pair.x, pair.y);
-  };
-  // Where along the pair's bisector (as s) triangle t's centre lies, c its corner off the pair, on the `left`
-  // (1) or right (-1): the closed form's centre where it is clear-cut (its K coordinate in the frame: the
-  // bisector is a graph over K), else the bisector's root.
-  const along = (t: number, c: number, left: number): number => {
-    if (state[t] === 0) {
-      if (square.through(vert[3 * t], vert[3 * t + 1], vert[3 * t + 2]) === FOUND) {
-        state[t] = 4;
-        // Back from W: (x, y) = ((u + v) / 2, (u - v) / 2) for L1, (u, v) for L-infinity.
-        if (rotated) place(t, square.cu, square.cv);
-        else place(t, (square.cu + square.cv) / 2, (square.cu - square.cv) / 2);
-      } else state[t] = 3;
-    }
-    if (state[t] === 4) {
-      const x = cxy[2 * t], y = cxy[2 * t + 1];
-      const K = rotated ? (pair.kIsQ ? x - y : x + y) : pair.kIsQ ? y : x;
-      return pair.tau * K;
-    }
-    const s = pair.root(c, left);
-    if (Number.isNaN(s)) throw new Undecided();
-    centre(t, s);
-    return s;
-  };
-  const line = new Float64Array(8);
+  const centres = new TriangleCentres(count, store.vert, pair, square, rotated, sides, parts.points);
   // Per triangle half-edge x (a = vert[x]): the mesh half-edge arriving at x's triangle's centre along the
   // Voronoi edge dual to x, with a on its left; -1 when that edge does not reach the centre.
   const arrive = new Int32Array(3 * count).fill(-1);
-  const origin = parts.origin;
+  const closest = drawEdges(store, live, centres, pair, parts, sides, siteOf, F, rotated, margin, arrive);
+  checkCrossings(parts, eps);
+  checkCorners(region, F, siteOf, rotated, margin);
+  addRing(parts, OUTER, () => { throw new Undecided(); });
+  const outside = (rank: number): boolean => !parts.inside(xy[2 * rank], xy[2 * rank + 1]);
+  const out = linkMesh(parts, n, siteOf, outside, successors(arrive, centres.pointOf, live, count, parts.origin.count));
+  if (ox !== 0 || oy !== 0) {
+    const v = out.mesh.vertexXY;
+    for (let i = 0; i < v.length; i += 2) { v[i] += ox; v[i + 1] += oy; }
+  }
+  // Euclidean >= L1 / sqrt 2 = closest / sqrt 2 (L1), or >= L-infinity = closest / 2 (in the rotated frame);
+  // the factor 1.01 covers the rounding of the rotated frame and of the sums (under 2^-50 M against a limit of 2^-40 M).
+  const { limit } = spacingLimit(tri.siteXY, n, regionXY);
+  const spaced = closest / (rotated ? 2 : Math.SQRT2) > 1.01 * limit;
+  return { mesh: out.mesh, faceOfSite: out.faceOfSite, spaced };
+}
+
+/**
+ * One pass over the edges of the metric triangulation (steps 3 and 4): for
+ * the edge a→b, with c the third corner of its triangle t and d across
+ * (triangle u), where along the bisector (as s, pair.ts) the circles through
+ * a, b, c and a, b, d are centred; the certificate (the edge clearly legal);
+ * and the edge drawn between the centres, bends included, clipped to the
+ * region. Fills `arrive`; returns the smallest |dP| + |dQ| of two real sites
+ * joined by an edge (the L1 distance, or twice the L-infinity one).
+ */
+function drawEdges(
+  store: TriangleStore, live: Uint8Array, centres: TriangleCentres, pair: PairBisector, parts: MeshParts, sides: SideTest,
+  siteOf: Int32Array, F: Float64Array, rotated: boolean, margin: number, arrive: Int32Array,
+): number {
+  const count = store.count, vert = store.vert, twin = store.twin, region = parts.region, origin = parts.origin;
+  const cxy = centres.xy, pointOf = centres.pointOf;
+  const line = new Float64Array(8);
   const cP = rotated ? region.cx + region.cy : region.cx, cQ = rotated ? region.cx - region.cy : region.cy;
   const reach = (rotated ? Math.SQRT2 : 1) * region.radius * 1.01 + margin;
-  // The smallest |dP| + |dQ| of two real sites joined by an edge: the L1 distance, or twice the L-infinity one.
   let closest = Infinity;
   for (let x = 0; x < 3 * count; x++) {
     const t = (x / 3) | 0;
@@ -246,8 +181,8 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
     if (!pair.set(a, b)) throw new Undecided();
     // u's centre first: the mesh numbers points as they are placed.
     const d = uLive ? vert[prevOf(y)] : -1;
-    const su = uLive ? along(u, d, -1) : -Infinity;
-    const st = along(t, c, 1);
+    const su = uLive ? centres.along(u, d, -1) : -Infinity;
+    const st = centres.along(t, c, 1);
     if (uLive && !(st - su > Math.max(pair.allowance(c, 4), pair.allowance(d, 4)))) throw new Undecided();
     // Guard cells stay outside the region (see withGuards): their edges are not drawn.
     if (siteOf[a] < 0 || siteOf[b] < 0) continue;
@@ -285,20 +220,7 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
       if (start >= 0 && origin.a[2 * k0] === start) arrive[y] = 2 * k0 + 1;
     }
   }
-  checkCrossings(parts, eps);
-  checkCorners(region, F, siteOf, rotated, margin);
-  addRing(parts, OUTER, () => { throw new Undecided(); });
-  const outside = (rank: number): boolean => !parts.inside(xy[2 * rank], xy[2 * rank + 1]);
-  const out = linkMesh(parts, n, siteOf, outside, successors(arrive, pointOf, live, count, origin.count));
-  if (ox !== 0 || oy !== 0) {
-    const v = out.mesh.vertexXY;
-    for (let i = 0; i < v.length; i += 2) { v[i] += ox; v[i + 1] += oy; }
-  }
-  // Euclidean >= L1 / sqrt 2 = closest / sqrt 2 (L1), or >= L-infinity = closest / 2 (in the rotated frame);
-  // the factor 1.01 covers the rounding of the rotated frame and of the sums (under 2^-50 M against a limit of 2^-40 M).
-  const { limit } = spacingLimit(tri.siteXY, n, regionXY);
-  const spaced = closest / (rotated ? 2 : Math.SQRT2) > 1.01 * limit;
-  return { mesh: out.mesh, faceOfSite: out.faceOfSite, spaced };
+  return closest;
 }
 
 /**

@@ -76,34 +76,40 @@ export function linkMesh(
     }
     next[e] = found;
   }
-  const faceEdge = new Int32Array(n + 1).fill(-1), faceSite = new Int32Array(n + 1), face = rankFace;
-  for (let s = 0; s < n; s++) faceSite[s] = s;
-  faceSite[n] = -1;
+  const N = siteOf.length;
   for (let e = 0; e < H; e++) {
-    const f = face[e];
-    face[e] = f === OUTER ? n : siteOf[f];
-    if (face[e] < 0) throw new AmbitError('internal', `minkowski diagram: a guard site's cell reached the region`);
+    const f = rankFace[e];
+    if (f !== OUTER && siteOf[f] < 0) throw new AmbitError('internal', `minkowski diagram: a guard site's cell reached the region`);
   }
-  // One cycle per face.
+  // One cycle per face, walked by rank (N for the outer face): ranks follow the curve, so the first half-edge
+  // of each face is recorded in nearby memory, where the input's numbering would scatter it.
+  const edgeOfRank = new Int32Array(N + 1).fill(-1);
   const seen = new Int32Array((H + 31) >> 5);
   for (let e = 0; e < H; e++) {
     if (seen[e >> 5] & (1 << (e & 31))) continue;
-    const f = face[e];
-    if (faceEdge[f] >= 0) {
-      const rank = f === n ? OUTER : siteOf.indexOf(f);
+    const rank = rankFace[e], r = rank === OUTER ? N : rank;
+    if (edgeOfRank[r] >= 0) {
+      const f = rank === OUTER ? n : siteOf[rank];
       throw new AmbitError('unsupported-geometry', isOutside(rank)
         ? `the cell of site ${f}, which lies outside the clip region, meets the region in separate pieces; this is not supported yet`
         : `the cell of site ${f} came out in separate pieces (a rounding problem in the Minkowski diagram)`);
     }
-    faceEdge[f] = e;
+    edgeOfRank[r] = e;
     let x = e;
     do {
       const w = x >> 5, bit = 1 << (x & 31);
-      if (seen[w] & bit) throw new AmbitError('internal', `minkowski diagram: the walk around face ${f} from half-edge ${e} ran into another cycle at ${x}`);
+      if (seen[w] & bit) throw new AmbitError('internal', `minkowski diagram: the walk around face ${rank === OUTER ? n : siteOf[rank]} from half-edge ${e} ran into another cycle at ${x}`);
       seen[w] |= bit;
       x = next[x];
     } while (x !== e);
   }
+  const face = rankFace;
+  for (let e = 0; e < H; e++) { const f = face[e]; face[e] = f === OUTER ? n : siteOf[f]; }
+  const faceEdge = new Int32Array(n + 1).fill(-1), faceSite = new Int32Array(n + 1);
+  for (let s = 0; s < n; s++) faceSite[s] = s;
+  faceSite[n] = -1;
+  for (let r = 0; r < N; r++) if (siteOf[r] >= 0) faceEdge[siteOf[r]] = edgeOfRank[r];
+  faceEdge[n] = edgeOfRank[N];
   const faceOfSite = new Int32Array(n);
   for (let s = 0; s < n; s++) faceOfSite[s] = faceEdge[s] >= 0 ? s : -1;
   const mesh = new HalfEdgeMesh({ kind: 'voronoi', vertexXY: xy, origin, twin, next, face, faceEdge, faceSite, outerFace: n });
