@@ -43,57 +43,61 @@ export class SquareCircle {
     private readonly l1: boolean,
   ) {}
 
-  private u(i: number): number { return this.l1 ? this.xy[2 * i] + this.xy[2 * i + 1] : this.xy[2 * i]; }
-  private v(i: number): number { return this.l1 ? this.xy[2 * i] - this.xy[2 * i + 1] : this.xy[2 * i + 1]; }
-
   /**
    * The circle through sites a, b and c into (cu, cv, r): FOUND; NONE when
    * there is none, one of the three lying clearly inside the bounding box
    * of the other two (that site, in `inner`); UNSURE when neither is clear-cut.
    */
   through(a: number, b: number, c: number): number {
-    const ua = this.u(a), va = this.v(a), ub = this.u(b), vb = this.v(b), uc = this.u(c), vc = this.v(c);
-    const m = (this.m = Math.max(Math.abs(ua), Math.abs(va), Math.abs(ub), Math.abs(vb), Math.abs(uc), Math.abs(vc)));
+    const xy = this.xy;
+    let ua = xy[2 * a], va = xy[2 * a + 1], ub = xy[2 * b], vb = xy[2 * b + 1], uc = xy[2 * c], vc = xy[2 * c + 1];
+    if (this.l1) {
+      let t = ua; ua = t + va; va = t - va;
+      t = ub; ub = t + vb; vb = t - vb;
+      t = uc; uc = t + vc; vc = t - vc;
+    }
+    const m = Math.max(Math.max(Math.abs(ua), Math.abs(va)), Math.max(Math.abs(ub), Math.abs(vb)), Math.max(Math.abs(uc), Math.abs(vc)));
+    this.m = m;
     const eps = 2 ** -45 * m;
-    const U = Math.max(ua, ub, uc) - Math.min(ua, ub, uc), V = Math.max(va, vb, vc) - Math.min(va, vb, vc);
-    let found: number;
-    if (U > V + eps) found = this.spanned(ua, va, ub, vb, uc, vc, eps);
-    else if (V > U + eps) {
-      found = this.spanned(va, ua, vb, ub, vc, uc, eps);
-      const t = this.cu; this.cu = this.cv; this.cv = t;
-    } else return UNSURE;
-    if (found === NONE) this.inner = this.middle === 0 ? a : this.middle === 1 ? b : c;
-    return found;
+    const ulo = Math.min(ua, ub, uc), uhi = Math.max(ua, ub, uc), vlo = Math.min(va, vb, vc), vhi = Math.max(va, vb, vc);
+    const U = uhi - ulo, V = vhi - vlo;
+    if (U > V + eps) return this.spanned(a, b, c, ua, va, ub, vb, uc, vc, ulo, uhi, eps, false);
+    if (V > U + eps) return this.spanned(a, b, c, va, ua, vb, ub, vc, uc, vlo, vhi, eps, true);
+    return UNSURE;
   }
 
   /** Set by through() when it returns NONE: the site inside the others' bounding box. */
   inner = -1;
-  /** Which of spanned()'s three sites is the middle one in p (0, 1 or 2). */
-  private middle = 0;
 
   /**
-   * The square whose left and right sides (along p) hold the two sites of
-   * extreme p, and whose top or bottom side (along q) the middle one: centre
-   * (cu, cv) = (p, q) and r. NONE when the middle site lies clearly between
-   * the others in q too; UNSURE when it is not clearly strictly between them
-   * in p, or is near one of them in q.
+   * The square whose left and right sides (along p, from lo to hi) hold the
+   * two sites of extreme p, and whose top or bottom side (along q) the
+   * middle one: centre and r (`swap`: p is v, q is u). NONE when the middle
+   * site lies clearly between the others in q too; UNSURE when it is not
+   * clearly strictly between them in p, or is near one of them in q.
    */
-  private spanned(p1: number, q1: number, p2: number, q2: number, p3: number, q3: number, eps: number): number {
-    // The middle site in p (pm, qm) and the other two's q.
-    let pm: number, qm: number, qa: number, qb: number, lo: number, hi: number;
-    if ((p1 - p2) * (p1 - p3) < 0) { this.middle = 0; pm = p1; qm = q1; qa = q2; qb = q3; lo = Math.min(p2, p3); hi = Math.max(p2, p3); }
-    else if ((p2 - p1) * (p2 - p3) < 0) { this.middle = 1; pm = p2; qm = q2; qa = q1; qb = q3; lo = Math.min(p1, p3); hi = Math.max(p1, p3); }
-    else { this.middle = 2; pm = p3; qm = q3; qa = q1; qb = q2; lo = Math.min(p1, p2); hi = Math.max(p1, p2); }
+  private spanned(a: number, b: number, c: number, p1: number, q1: number, p2: number, q2: number, p3: number, q3: number,
+    lo: number, hi: number, eps: number, swap: boolean): number {
+    // The middle site in p (pm, qm), and the other two's q. Exact comparisons: lo and hi are two of p1, p2, p3.
+    let pm: number, qm: number, qa: number, qb: number, mid: number;
+    if (p1 !== lo && p1 !== hi) { pm = p1; qm = q1; qa = q2; qb = q3; mid = a; }
+    else if (p2 !== lo && p2 !== hi) { pm = p2; qm = q2; qa = q1; qb = q3; mid = b; }
+    else { pm = p3; qm = q3; qa = q1; qb = q2; mid = c; }
     if (!(pm - lo > eps && hi - pm > eps)) return UNSURE;
     const r = (hi - lo) / 2, qlo = Math.min(qa, qb), qhi = Math.max(qa, qb);
     let cq: number;
     if (qm - qhi > eps) cq = qm - r;
     else if (qlo - qm > eps) cq = qm + r;
-    else if (qm - qlo > eps && qhi - qm > eps) return NONE;
+    else if (qm - qlo > eps && qhi - qm > eps) { this.inner = mid; return NONE; }
     else return UNSURE;
-    this.cu = (lo + hi) / 2; this.cv = cq; this.r = r;
+    const cp = (lo + hi) / 2;
+    if (swap) { this.cu = cq; this.cv = cp; } else { this.cu = cp; this.cv = cq; }
+    this.r = r;
     return FOUND;
   }
+
+  private u(i: number): number { return this.l1 ? this.xy[2 * i] + this.xy[2 * i + 1] : this.xy[2 * i]; }
+  private v(i: number): number { return this.l1 ? this.xy[2 * i] - this.xy[2 * i + 1] : this.xy[2 * i + 1]; }
 
   /**
    * Whether site d lies inside every circle through sites a and b: their
