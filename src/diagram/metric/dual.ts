@@ -5,7 +5,7 @@ import { linkMesh } from '../minkowski/link.js';
 import { MeshParts } from '../minkowski/parts.js';
 import { clipPolyline } from '../minkowski/edges.js';
 import { addRing, OUTER } from '../minkowski/ring.js';
-import { GUARDS, withGuards } from '../minkowski/sentinels.js';
+import { GUARDS, placeGuards } from '../minkowski/sentinels.js';
 import { TriangleStore } from '../../triangulate/store.js';
 import { hilbertSort } from '../../core/hilbert.js';
 import { brioOrder } from '../../triangulate/order.js';
@@ -96,9 +96,9 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   // so that the triangles and pairs met one after another read nearby memory, then the guards (placed about
   // the local region: they are the route's own sites). siteOf: rank -> site, -1 for a guard.
   const order = tri.curveOrder() ?? hilbertSort(tri.siteXY.subarray(0, 2 * n)).ids;
-  const sites = new Float64Array(2 * n), siteXY = tri.siteXY;
-  for (let r = 0; r < n; r++) { const s = order[r]; sites[2 * r] = siteXY[2 * s] - ox; sites[2 * r + 1] = siteXY[2 * s + 1] - oy; }
-  const xy = withGuards(sites, n, region), N = n + GUARDS;
+  const N = n + GUARDS, xy = new Float64Array(2 * N), siteXY = tri.siteXY;
+  for (let r = 0; r < n; r++) { const s = order[r]; xy[2 * r] = siteXY[2 * s] - ox; xy[2 * r + 1] = siteXY[2 * s + 1] - oy; }
+  placeGuards(xy, n, region);
   const siteOf = new Int32Array(N).fill(-1);
   for (let r = 0; r < n; r++) siteOf[r] = order[r];
   const rotated = metric === 'Linf';

@@ -37,15 +37,20 @@ export function guardedTriangulation(tri: Triangulation, region: ConvexRegion): 
 
 /** The n sites of xy (interleaved) followed by GUARDS guard sites, placed as guardedTriangulation explains. */
 export function withGuards(xy: Float64Array, n: number, region: ConvexRegion): Float64Array {
-  let spread = 0;
-  for (let i = 0; i < n; i++) spread = Math.max(spread, length(xy[2 * i] - region.cx, xy[2 * i + 1] - region.cy));
-  const G = 4 * (region.radius + spread);
   const all = new Float64Array(2 * (n + GUARDS));
   all.set(xy.subarray(0, 2 * n));
+  placeGuards(all, n, region);
+  return all;
+}
+
+/** Writes the GUARDS guard sites after the n sites of `all` (interleaved, room for n + GUARDS). */
+export function placeGuards(all: Float64Array, n: number, region: ConvexRegion): void {
+  let spread = 0;
+  for (let i = 0; i < n; i++) spread = Math.max(spread, length(all[2 * i] - region.cx, all[2 * i + 1] - region.cy));
+  const G = 4 * (region.radius + spread);
   for (let k = 0; k < GUARDS; k++) {
     const angle = 0.3 + (2 * Math.PI * k) / GUARDS + 0.01 * k * k;
     all[2 * (n + k)] = region.cx + G * Math.cos(angle);
     all[2 * (n + k) + 1] = region.cy + G * Math.sin(angle);
   }
-  return all;
 }
