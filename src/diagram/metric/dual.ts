@@ -16,6 +16,7 @@ import { SquareCircle } from './square.js';
 import { MetricFlipTest } from './flip-test.js';
 import { TriangleCentres } from './centres.js';
 import { Undecided } from './undecided.js';
+import { localTriangles, type LocalTriangles } from './local-triangles.js';
 
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
@@ -125,23 +126,21 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   // order alone, whose newest site always faces the guards' long triangles.
   const sequence = brioOrder(n);
   for (let i = 0; i < n; i++) if (store.insert(sequence[i]) >= 0) throw new Undecided();
-  const count = store.count;
-  const live = new Uint8Array(count);
-  for (let t = 0; t < count; t++) live[t] = store.isGhost(t) ? 0 : 1;
+  const tris = localTriangles(store, N), count = tris.count;
 
   const sides = new SideTest(region, eps);
   // About 6 points (centres and bends) and 14 half-edges a site on well-spread input: room for them from the start.
   parts.room(6.3 * n + 64, 14.5 * n + 256);
-  const centres = new TriangleCentres(count, store.vert, pair, square, rotated, sides, parts.points);
+  const centres = new TriangleCentres(count, tris.vert, pair, square, rotated, sides, parts.points);
   // Per triangle half-edge x (a = vert[x]): the mesh half-edge arriving at x's triangle's centre along the
   // Voronoi edge dual to x, with a on its left; -1 when that edge does not reach the centre.
   const arrive = new Int32Array(3 * count).fill(-1);
-  const closest = drawEdges(store, live, centres, pair, parts, sides, siteOf, F, rotated, margin, arrive);
+  const closest = drawEdges(tris, centres, pair, parts, sides, siteOf, F, rotated, margin, arrive);
   checkCrossings(parts, eps);
   checkCorners(region, F, siteOf, rotated, margin);
   addRing(parts, OUTER, () => { throw new Undecided(); });
   const outside = (rank: number): boolean => !parts.inside(xy[2 * rank], xy[2 * rank + 1]);
-  const out = linkMesh(parts, n, siteOf, outside, successors(arrive, centres.pointOf, live, count, parts.origin.count));
+  const out = linkMesh(parts, n, siteOf, outside, successors(arrive, centres.pointOf, count, parts.origin.count));
   if (ox !== 0 || oy !== 0) {
     const v = out.mesh.vertexXY;
     for (let i = 0; i < v.length; i += 2) { v[i] += ox; v[i + 1] += oy; }
@@ -163,10 +162,10 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
  * joined by an edge (the L1 distance, or twice the L-infinity one).
  */
 function drawEdges(
-  store: TriangleStore, live: Uint8Array, centres: TriangleCentres, pair: PairBisector, parts: MeshParts, sides: SideTest,
+  tris: LocalTriangles, centres: TriangleCentres, pair: PairBisector, parts: MeshParts, sides: SideTest,
   siteOf: Int32Array, F: Float64Array, rotated: boolean, margin: number, arrive: Int32Array,
 ): number {
-  const count = store.count, vert = store.vert, twin = store.twin, region = parts.region, origin = parts.origin;
+  const { count, vert, twin } = tris, region = parts.region, origin = parts.origin;
   const cxy = centres.xy, pointOf = centres.pointOf;
   const line = new Float64Array(8);
   const cP = rotated ? region.cx + region.cy : region.cx, cQ = rotated ? region.cx - region.cy : region.cy;
@@ -174,8 +173,7 @@ function drawEdges(
   let closest = Infinity;
   for (let x = 0; x < 3 * count; x++) {
     const t = (x / 3) | 0;
-    if (!live[t]) continue;
-    const y = twin[x], u = (y / 3) | 0, uLive = live[u] === 1;
+    const y = twin[x], u = y < 0 ? -1 : (y / 3) | 0, uLive = y >= 0;
     if (uLive && y < x) continue;
     const a = vert[x], b = vert[nextOf(x)], c = vert[prevOf(x)];
     if (!pair.set(a, b)) throw new Undecided();
@@ -231,10 +229,10 @@ function drawEdges(
  * Only at centres that all three edges reach (every centre inside the
  * region, as guard cells stay outside it); the rest are searched.
  */
-function successors(arrive: Int32Array, pointOf: Int32Array, live: Uint8Array, count: number, H: number): Int32Array {
+function successors(arrive: Int32Array, pointOf: Int32Array, count: number, H: number): Int32Array {
   const next = new Int32Array(H).fill(-1);
   for (let t = 0; t < count; t++) {
-    if (!live[t] || pointOf[t] < 0) continue;
+    if (pointOf[t] < 0) continue;
     const e0 = arrive[3 * t], e1 = arrive[3 * t + 1], e2 = arrive[3 * t + 2];
     if (e0 < 0 || e1 < 0 || e2 < 0) continue;
     // prevOf(3t) = 3t + 2, prevOf(3t + 1) = 3t, prevOf(3t + 2) = 3t + 1.
