@@ -21,7 +21,6 @@ import { localTriangles, type LocalTriangles } from './local-triangles.js';
 const nextOf = (e: number): number => (e % 3 === 2 ? e - 2 : e + 1);
 const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
 
-
 /**
  * The L1 or L-infinity diagram as the dual of the metric's Delaunay
  * triangulation, for input in general position; null when some decision
@@ -36,10 +35,11 @@ const prevOf = (e: number): number => (e % 3 === 0 ? e + 2 : e - 1);
  *    cells stay outside the region holds for L1 and L-infinity, both within
  *    a factor sqrt 2 of the Euclidean norm): every real cell is bounded.
  * 2. The metric Delaunay triangulation by incremental insertion (sites in
- *    curve order into the guards' triangulation) with Lawson flips around
- *    each new site: TriangleStore with its edge test replaced. The edge a→b
- *    with the new site p on its left and d across goes when d lies inside
- *    the circle through a, b, p, whose centre is the root of a monotone
+ *    BRIO rounds into the guards' triangulation) with Lawson flips around
+ *    each new site: TriangleStore with its edge test replaced (flip-test.ts).
+ *    The edge a→b with the new site p on its left and d across goes when d
+ *    lies inside the circle through a, b, p: a square read off the three
+ *    sites' bounding box (square.ts), or near ties the root of a monotone
  *    piecewise-linear function along the bisector (pair.ts); a flip only
  *    ever adds an edge at p, so the flips end. (Lawson flips from the
  *    Euclidean triangulation cycle: in L1 a site can lie inside every
