@@ -2,10 +2,11 @@
  * The L1 or L-infinity circle through three sites in closed form, for the
  * dual route (dual.ts): its edge tests during insertion and the triangles'
  * centres. The general construction (pair.ts) finds a centre as the root of
- * a piecewise-linear function along one bisector; this one reads it off the
- * three sites' bounding box, several times cheaper, and settles only the
- * clear cases: whenever it is unsure it says so, and the caller takes the
- * general construction.
+ * a piecewise-linear function along one bisector, after setting that
+ * bisector up; this one reads it off the three sites' bounding box (the
+ * route took 0.80 to 0.88 of its time at 10^5 sites with it), and settles
+ * only the clear cases: whenever it is unsure it says so, and the caller
+ * takes the general construction.
  *
  * In the frame W = (u, v), with (u, v) = (x + y, x - y) for L1 and (x, y)
  * for L-infinity, the metric is the L-infinity distance (|dx| + |dy| =
