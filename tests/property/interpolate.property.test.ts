@@ -114,6 +114,9 @@ describe.each(GENERATORS)('natural-neighbour interpolation on $name', ({ arb }) 
       const probe = (qx: number, qy: number, dx: number, dy: number) => {
         const len = Math.hypot(dx, dy);
         if (!(len > 0)) return;
+        // A triangle flat in floating point (exact predicates still see it turn) has its circumcentre beyond
+        // doubles, and there is no circle to probe across (found by this test: a perturbed grid, d = 0).
+        if (!Number.isFinite(qx) || !Number.isFinite(qy)) return;
         const px = snap(qx), py = snap(qy), ex = snap((delta * dx) / len), ey = snap((delta * dy) / len);
         const xs = [-3, -1, 1, 3].map((k) => px + k * ex), ys = [-3, -1, 1, 3].map((k) => py + k * ey);
         const f = xs.map((x, k) => interp.at(x, ys[k]));
