@@ -90,3 +90,27 @@ export function clipPolyline(parts: MeshParts, P: Float64Array, m: number, a: nu
     cur = sideOut >= 0 ? -1 : next;
   }
 }
+
+/**
+ * The common case of clipPolyline, without its tests at the ends: a
+ * polyline whose first and last points are mesh points `startId` and
+ * `endId`, both known strictly inside by `test`. When every point between
+ * is inside too, the whole polyline is (the region is convex): it becomes
+ * one chain exactly as clipPolyline would make it, and the answer is true.
+ * False, with nothing done, when a point between is not inside.
+ */
+export function insidePolyline(parts: MeshParts, P: Float64Array, m: number, a: number, b: number, startId: number, endId: number,
+  test: { inside(x: number, y: number): boolean }): boolean {
+  for (let i = 1; i + 1 < m; i++) if (!test.inside(P[2 * i], P[2 * i + 1])) return false;
+  let cur = startId;
+  for (let i = 1; i + 1 < m; i++) {
+    const next = parts.points.add(P[2 * i], P[2 * i + 1]);
+    parts.link(cur, next, a, b);
+    if (i > 1) parts.bend();
+    cur = next;
+  }
+  parts.link(cur, endId, a, b);
+  if (m > 2) parts.bend();
+  return true;
+}
+
