@@ -17,14 +17,6 @@ const dist = (m: Metric, ax: number, ay: number, bx: number, by: number): number
 const centreXY = (sq: SquareCircle, m: Metric): [number, number] =>
   m === 'L1' ? [(sq.cu + sq.cv) / 2, (sq.cu - sq.cv) / 2] : [sq.cu, sq.cv];
 
-/** Frame coordinates of pair.ts: (x, y) for L1, (x + y, x - y) for L-infinity. */
-function frame(xy: Float64Array, m: Metric): Float64Array {
-  if (m === 'L1') return xy;
-  const F = new Float64Array(xy.length);
-  for (let i = 0; i < xy.length; i += 2) { F[i] = xy[i] + xy[i + 1]; F[i + 1] = xy[i] - xy[i + 1]; }
-  return F;
-}
-
 /** Whether c is on the left of a→b (counter-clockwise, y up), in floating point: the tests only use clear cases. */
 const leftOf = (xy: Float64Array, a: number, b: number, c: number): number =>
   Math.sign((xy[2 * b] - xy[2 * a]) * (xy[2 * c + 1] - xy[2 * a + 1]) - (xy[2 * b + 1] - xy[2 * a + 1]) * (xy[2 * c] - xy[2 * a]));
@@ -61,7 +53,7 @@ describe('SquareCircle (the dual route\'s closed-form metric circle)', () => {
     let compared = 0, none = 0;
     fc.assert(fc.property(triple, ({ xy, m }) => {
       const sq = new SquareCircle(xy, m === 'L1');
-      const pair = new PairBisector(frame(xy, m), m === 'Linf');
+      const pair = new PairBisector(xy, m === 'Linf');
       const side = leftOf(xy, 0, 1, 2);
       if (side === 0 || !pair.set(0, 1)) return;
       const s = pair.root(2, side);
@@ -90,7 +82,7 @@ describe('SquareCircle (the dual route\'s closed-form metric circle)', () => {
     let inside = 0, outside = 0;
     fc.assert(fc.property(triple, ({ xy, m }) => {
       const sq = new SquareCircle(xy, m === 'L1');
-      const pair = new PairBisector(frame(xy, m), m === 'Linf');
+      const pair = new PairBisector(xy, m === 'Linf');
       if (!pair.set(0, 1)) return;
       const verdict = sq.insideBox(0, 1, 2);
       if (verdict === 0) return;

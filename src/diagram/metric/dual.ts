@@ -103,18 +103,16 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   const siteOf = new Int32Array(N).fill(-1);
   for (let r = 0; r < n; r++) siteOf[r] = order[r];
   const rotated = metric === 'Linf';
-  // The frame coordinates (P, Q) interleaved: the sites themselves for L1.
-  const F = rotated ? new Float64Array(2 * N) : xy;
+  // M: the largest frame coordinate (P, Q) = (x, y) for L1, (x + y, x - y) for L-infinity.
   let M = 0;
   for (let r = 0; r < N; r++) {
     const x = xy[2 * r], y = xy[2 * r + 1];
-    if (rotated) { F[2 * r] = x + y; F[2 * r + 1] = x - y; }
-    M = Math.max(M, Math.abs(F[2 * r]), Math.abs(F[2 * r + 1]));
+    M = rotated ? Math.max(M, Math.abs(x + y), Math.abs(x - y)) : Math.max(M, Math.abs(x), Math.abs(y));
   }
   for (let i = 0; i < local.length; i++) M = Math.max(M, 2 * Math.abs(local[i]));
   const eps = 2 ** -44 * M;
   const margin = 16 * eps;
-  const pair = new PairBisector(F, rotated);
+  const pair = new PairBisector(xy, rotated);
 
   // The metric Delaunay triangulation (step 2).
   const store = new TriangleStore(xy, 2 * N + 8);
@@ -135,9 +133,9 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
   // Per triangle half-edge x (a = vert[x]): the mesh half-edge arriving at x's triangle's centre along the
   // Voronoi edge dual to x, with a on its left; -1 when that edge does not reach the centre.
   const arrive = new Int32Array(3 * count).fill(-1);
-  const closest = drawEdges(tris, centres, pair, parts, sides, siteOf, F, rotated, margin, arrive);
+  const closest = drawEdges(tris, centres, pair, parts, sides, siteOf, rotated, margin, arrive);
   checkCrossings(parts, eps);
-  checkCorners(region, F, siteOf, rotated, margin);
+  checkCorners(region, xy, siteOf, rotated, margin);
   addRing(parts, OUTER, () => { throw new Undecided(); });
   const outside = (rank: number): boolean => !parts.inside(xy[2 * rank], xy[2 * rank + 1]);
   const out = linkMesh(parts, n, siteOf, outside, successors(arrive, centres.pointOf, count, parts.origin.count));
@@ -163,7 +161,7 @@ function build(tri: Triangulation, regionXY: Float64Array, metric: ExactMetric):
  */
 function drawEdges(
   tris: LocalTriangles, centres: TriangleCentres, pair: PairBisector, parts: MeshParts, sides: SideTest,
-  siteOf: Int32Array, F: Float64Array, rotated: boolean, margin: number, arrive: Int32Array,
+  siteOf: Int32Array, rotated: boolean, margin: number, arrive: Int32Array,
 ): number {
   const { count, vert, twin } = tris, region = parts.region, origin = parts.origin;
   const cxy = centres.xy, pointOf = centres.pointOf;
@@ -184,8 +182,7 @@ function drawEdges(
     if (uLive && !(st - su > Math.max(pair.allowance(c, 4), pair.allowance(d, 4)))) throw new Undecided();
     // Guard cells stay outside the region (see withGuards): their edges are not drawn.
     if (siteOf[a] < 0 || siteOf[b] < 0) continue;
-    const gap = Math.abs(F[2 * a] - F[2 * b]) + Math.abs(F[2 * a + 1] - F[2 * b + 1]);
-    if (gap < closest) closest = gap;
+    if (pair.gap < closest) closest = pair.gap;
     let s0 = su, s1 = st;
     // Every region point has its K within `reach` of the region centre's: cut open or far ends there.
     const sC = pair.tau * (pair.kIsQ ? cQ : cP), lo = sC - reach, hi = sC + reach;
@@ -310,14 +307,15 @@ function checkCrossings(parts: MeshParts, eps: number): void {
  * cell boundary passes within the margin of it, and which cell the float
  * clip gives it is a guess. Brute force, a few corners times n.
  */
-function checkCorners(region: ConvexRegion, F: Float64Array, siteOf: Int32Array, rotated: boolean, margin: number): void {
+function checkCorners(region: ConvexRegion, xy: Float64Array, siteOf: Int32Array, rotated: boolean, margin: number): void {
   for (let j = 0; j < region.count; j++) {
     const x = region.xy[2 * j], y = region.xy[2 * j + 1];
     const cp = rotated ? x + y : x, cq = rotated ? x - y : y;
     let best = Infinity, second = Infinity;
     for (let r = 0; r < siteOf.length; r++) {
       if (siteOf[r] < 0) continue;
-      const d = Math.abs(F[2 * r] - cp) + Math.abs(F[2 * r + 1] - cq);
+      const sx = xy[2 * r], sy = xy[2 * r + 1];
+      const d = rotated ? Math.abs(sx + sy - cp) + Math.abs(sx - sy - cq) : Math.abs(sx - cp) + Math.abs(sy - cq);
       if (d < best) { second = best; best = d; } else if (d < second) second = d;
     }
     if (!(second - best > 4 * margin)) throw new Undecided();

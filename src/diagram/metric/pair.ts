@@ -33,11 +33,22 @@ export class PairBisector {
   x = 0; y = 0;
 
   constructor(
-    /** Frame coordinates of the sites, interleaved (P, Q) by index: for L1 the sites' own array. */
-    private readonly F: Float64Array,
-    /** True for L-infinity: the frame map (x + y, x - y) reverses orientation and point() maps back. */
+    /** The sites, interleaved (x, y) by index: frame coordinates are taken from them as they are read. */
+    private readonly xy: Float64Array,
+    /** True for L-infinity: the frame is (x + y, x - y), a map that reverses orientation; point() maps back. */
     private readonly rotated: boolean,
   ) {}
+
+  /** Site i's frame coordinates into (fP, fQ): computed where read, so L-infinity keeps no second array. */
+  private frame(i: number): void {
+    const x = this.xy[2 * i], y = this.xy[2 * i + 1];
+    if (this.rotated) { this.fP = x + y; this.fQ = x - y; } else { this.fP = x; this.fQ = y; }
+  }
+  private fP = 0;
+  private fQ = 0;
+
+  /** |dP| + |dQ| of the pair (set by set()): the L1 distance, or twice the L-infinity one. */
+  gap = 0;
 
   /** Largest frame coordinate magnitude of the pair: the scale of every rounding error here. */
   m = 0;
@@ -52,17 +63,22 @@ export class PairBisector {
    * (256 u m) for signs of G, times `k` for sums of such values.
    */
   allowance(c: number, k: number): number {
-    const mc = Math.max(this.m, Math.abs(this.F[2 * c]), Math.abs(this.F[2 * c + 1]));
+    this.frame(c);
+    const mc = Math.max(this.m, Math.abs(this.fP), Math.abs(this.fQ));
     return k * 2 ** -45 * mc;
   }
 
   /** Sets up the bisector of sites a and b; false when the pair is not clearly in general position. */
   set(a: number, b: number): boolean {
-    const F = this.F, Pa = F[2 * a], Qa = F[2 * a + 1], Pb = F[2 * b], Qb = F[2 * b + 1];
+    this.frame(a);
+    const Pa = this.fP, Qa = this.fQ;
+    this.frame(b);
+    const Pb = this.fP, Qb = this.fQ;
     this.m = Math.max(Math.abs(Pa), Math.abs(Qa), Math.abs(Pb), Math.abs(Qb));
     const eps = 2 ** -45 * this.m;
     const dP = Pb - Pa, dQ = Qb - Qa;
     const aP = Math.abs(dP), aQ = Math.abs(dQ);
+    this.gap = aP + aQ;
     if (!(aP > eps && aQ > eps && Math.abs(aP - aQ) > eps)) return false;
     const kIsQ = (this.kIsQ = aP > aQ);
     const Da = kIsQ ? Pa : Qa, Db = kIsQ ? Pb : Qb, Ka = kIsQ ? Qa : Pa, Kb = kIsQ ? Qb : Pb;
@@ -104,7 +120,8 @@ export class PairBisector {
    */
   root(c: number, left: number): number {
     const kIsQ = this.kIsQ;
-    const Pc = this.F[2 * c], Qc = this.F[2 * c + 1], Dc = kIsQ ? Pc : Qc, Kc = kIsQ ? Qc : Pc;
+    this.frame(c);
+    const Pc = this.fP, Qc = this.fQ, Dc = kIsQ ? Pc : Qc, Kc = kIsQ ? Qc : Pc;
     const ks = this.ks, Klo = this.Klo, Khi = this.Khi;
     // The breakpoints in order, without a sort: Klo < Khi, Kc anywhere, kD (if any) strictly between the bends.
     let m = 0;
@@ -148,7 +165,8 @@ export class PairBisector {
    */
   beyond(s: number, c: number): number {
     const k = this.tau * s, D = this.D(k);
-    const Pc = this.F[2 * c], Qc = this.F[2 * c + 1], Dc = this.kIsQ ? Pc : Qc, Kc = this.kIsQ ? Qc : Pc;
+    this.frame(c);
+    const Pc = this.fP, Qc = this.fQ, Dc = this.kIsQ ? Pc : Qc, Kc = this.kIsQ ? Qc : Pc;
     return Math.abs(D - Dc) + Math.abs(k - Kc) - Math.abs(D - this.Da) - Math.abs(k - this.Ka);
   }
 
