@@ -56,11 +56,7 @@ export class TriangleCentres {
         else this.place(t, (square.cu + square.cv) / 2, (square.cu - square.cv) / 2);
       } else state[t] = ROOTS_PENDING;
     }
-    if (state[t] === CLOSED) {
-      const x = this.xy[2 * t], y = this.xy[2 * t + 1];
-      const K = this.rotated ? (pair.kIsQ ? x - y : x + y) : pair.kIsQ ? y : x;
-      return pair.tau * K;
-    }
+    if (state[t] === CLOSED) return pair.sAt(this.xy[2 * t], this.xy[2 * t + 1]);
     const s = pair.root(c, left);
     if (Number.isNaN(s)) throw new Undecided();
     const finite = Number.isFinite(s);

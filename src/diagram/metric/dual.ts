@@ -3,7 +3,7 @@ import type { Triangulation } from '../../triangulate/triangulation.js';
 import { ConvexRegion } from '../clip.js';
 import { linkMesh } from '../minkowski/link.js';
 import { MeshParts } from '../minkowski/parts.js';
-import { clipPolyline, insidePolyline } from '../minkowski/edges.js';
+import { clipPolyline } from '../minkowski/edges.js';
 import { addRing, OUTER } from '../minkowski/ring.js';
 import { GUARDS, placeGuards } from '../minkowski/sentinels.js';
 import { TriangleStore } from '../../triangulate/store.js';
@@ -206,8 +206,8 @@ function drawEdges(
     m++;
     const k0 = origin.count >> 1;
     const start = cut0 ? -1 : pointOf[u], end = cut1 ? -1 : pointOf[t];
-    // Centres with a point are strictly inside (TriangleCentres), so most edges skip the tests at their ends.
-    if (start < 0 || end < 0 || !insidePolyline(parts, line, m, a, b, start, end, sides)) clipPolyline(parts, line, m, a, b, start, end, sides);
+    // Centres with a point are inside by `sides` (TriangleCentres), as clipPolyline requires of its ids.
+    clipPolyline(parts, line, m, a, b, start, end, sides);
     // The chain runs u -> t with a on its left: its last edge arrives at t along (a on the left), its first
     // arrives at u backwards (b on the left, b = vert[y]).
     const k1 = origin.count >> 1;

@@ -20,10 +20,10 @@ export class MetricFlipTest {
   mustFlip(a: number, b: number, p: number, d: number): boolean {
     const square = this.square, found = square.through(a, b, p);
     if (found === FOUND) {
-      // d inside the circle through a, b and p, or outside, by 4 margins (each side's rounding is within one).
-      const g = square.beyond(d), slack = 4 * 2 ** -45 * Math.max(square.m, square.scale(d));
-      if (g > slack) return false;
-      if (g < -slack) return this.convexAt(a, b, p, d);
+      // d outside the circle through a, b and p, or inside.
+      const side = square.outside(d);
+      if (side > 0) return false;
+      if (side < 0) return this.convexAt(a, b, p, d);
     } else if (found === NONE) {
       // No circle through the three: p inside the pair's bounding box lies inside every circle through a
       // and b, and the edge goes; else (a or b inside the others' box) p lies outside every one, and the

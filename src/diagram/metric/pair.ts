@@ -170,6 +170,15 @@ export class PairBisector {
     return Math.abs(D - Dc) + Math.abs(k - Kc) - Math.abs(D - this.Da) - Math.abs(k - this.Ka);
   }
 
+  /**
+   * The parameter s of a point (x, y) on the bisector: tau times its K
+   * coordinate in the frame (the bisector is a graph over K).
+   */
+  sAt(x: number, y: number): number {
+    const P = this.rotated ? x + y : x, Q = this.rotated ? x - y : y;
+    return this.tau * (this.kIsQ ? Q : P);
+  }
+
   /** The bisector point at s = tau k into (x, y). */
   point(s: number): void {
     const k = this.tau * s, D = this.D(k);

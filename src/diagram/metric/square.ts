@@ -115,11 +115,15 @@ export class SquareCircle {
     return least > eps ? 1 : least < -eps ? -1 : 0;
   }
 
-  /** Site d's distance beyond the last circle (negative inside), in the metric's units. */
-  beyond(d: number): number {
-    return Math.max(Math.abs(this.u(d) - this.cu), Math.abs(this.v(d) - this.cv)) - this.r;
+  /**
+   * Where site d lies against the last circle: 1 clearly outside, -1
+   * clearly inside, 0 unsure, by 4 margins (each side's rounding is within
+   * one: the centre and radius, and d's own coordinates).
+   */
+  outside(d: number): number {
+    const ud = this.u(d), vd = this.v(d);
+    const g = Math.max(Math.abs(ud - this.cu), Math.abs(vd - this.cv)) - this.r;
+    const slack = 4 * 2 ** -45 * Math.max(this.m, Math.abs(ud), Math.abs(vd));
+    return g > slack ? 1 : g < -slack ? -1 : 0;
   }
-
-  /** Largest W magnitude of site d. */
-  scale(d: number): number { return Math.max(Math.abs(this.u(d)), Math.abs(this.v(d))); }
 }

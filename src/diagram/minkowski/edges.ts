@@ -55,8 +55,11 @@ function tOf(f: PairFrame, x: number, y: number): number { return (x - f.mx) * f
  * at their ends; the points it makes between two of its edges are declared
  * bends. `test.inside` is the region's inside rule (MeshParts.inside, or a
  * stricter one that refuses points too near a side); a segment with both
- * ends inside by it is whole. Shared by the Minkowski and the L1/L∞ dual
- * route.
+ * ends inside by it is whole. `startId` / `endId`, when not -1, are the
+ * mesh points at the polyline's first / last point, made only for points
+ * inside by that same rule (both engines' centres): those two are not
+ * tested again, which for most edges leaves only the bends to test. Shared
+ * by the Minkowski and the L1/L∞ dual route.
  */
 export function clipPolyline(parts: MeshParts, P: Float64Array, m: number, a: number, b: number, startId: number, endId: number,
   test: { inside(x: number, y: number): boolean }): void {
@@ -65,10 +68,10 @@ export function clipPolyline(parts: MeshParts, P: Float64Array, m: number, a: nu
   let made = false;
   // Each point is tested once, for both of its segments. A segment with both ends inside by this rule is
   // whole, as clip() would find it: every side is positive at both ends, so no side cuts it.
-  let inP = test.inside(P[0], P[1]);
+  let inP = startId >= 0 || test.inside(P[0], P[1]);
   for (let i = 0; i + 1 < m; i++) {
     const px = P[2 * i], py = P[2 * i + 1], qx = P[2 * i + 2], qy = P[2 * i + 3];
-    const inQ = test.inside(qx, qy), whole = inP && inQ;
+    const inQ = (i + 2 === m && endId >= 0) || test.inside(qx, qy), whole = inP && inQ;
     inP = inQ;
     if (!whole && !parts.clip(px, py, qx, qy)) {
       if (cur >= 0) throw new Error(`minkowski edge ${a}-${b}: a run lost its way (inside point, no inside segment)`);
@@ -90,27 +93,3 @@ export function clipPolyline(parts: MeshParts, P: Float64Array, m: number, a: nu
     cur = sideOut >= 0 ? -1 : next;
   }
 }
-
-/**
- * The common case of clipPolyline, without its tests at the ends: a
- * polyline whose first and last points are mesh points `startId` and
- * `endId`, both known strictly inside by `test`. When every point between
- * is inside too, the whole polyline is (the region is convex): it becomes
- * one chain exactly as clipPolyline would make it, and the answer is true.
- * False, with nothing done, when a point between is not inside.
- */
-export function insidePolyline(parts: MeshParts, P: Float64Array, m: number, a: number, b: number, startId: number, endId: number,
-  test: { inside(x: number, y: number): boolean }): boolean {
-  for (let i = 1; i + 1 < m; i++) if (!test.inside(P[2 * i], P[2 * i + 1])) return false;
-  let cur = startId;
-  for (let i = 1; i + 1 < m; i++) {
-    const next = parts.points.add(P[2 * i], P[2 * i + 1]);
-    parts.link(cur, next, a, b);
-    if (i > 1) parts.bend();
-    cur = next;
-  }
-  parts.link(cur, endId, a, b);
-  if (m > 2) parts.bend();
-  return true;
-}
-
